@@ -1,4 +1,6 @@
-"""Plain data types shared by every stage of joint-audit (DESIGN.md §3).
+"""Contributors: read the house rules at the top of DEVELOPERS.md before writing code.
+
+Plain data types shared by every stage of joint-audit (DESIGN.md §3).
 
 Internal units everywhere: **mm, N, N·mm, MPa** (and mm², mm⁴ for section properties). Field names
 carry their unit only when it is not one of these. Readers convert at the boundary; reports convert

@@ -1,0 +1,248 @@
+"""The ``joint-audit`` command line.
+
+Exit status: 0 all checked joints pass (or the command succeeded), 1 some joint fails or needs
+design, 2 bad input or usage (one clear line on stderr, nothing written), 3 an internal error (a bug:
+one line on stderr; set ``JOINT_AUDIT_DEBUG=1`` for the traceback).
+
+The CLI is the only part of ``engine`` that wires in the IFC side: it imports ``ifc_io`` inside the
+commands that need it, so the mechanics never import ifcopenshell.
+"""
+
+from __future__ import annotations
+
+import argparse
+import dataclasses
+import json
+import os
+import sys
+from pathlib import Path
+from typing import Any, Sequence
+
+from engine import __version__
+from engine.cautions import CAUTION
+from engine.errors import JointAuditError, OutputError
+
+__all__ = ["main", "build_parser", "load_frame"]
+
+_DESCRIPTION = (
+    "Audit every beam-to-support connection in an IFC steel model: find the joints, classify each "
+    "support stiff or flexible, and check the connections.\n\nCAUTION: " + CAUTION
+)
+
+
+class _Parser(argparse.ArgumentParser):
+    """An argument parser whose usage errors are one line on stderr and exit status 2."""
+
+    def error(self, message: str) -> None:  # type: ignore[override]
+        self.exit(2, f"{self.prog}: error: {message} (see {self.prog} --help)\n")
+
+
+def build_parser() -> argparse.ArgumentParser:
+    parser = _Parser(
+        prog="joint-audit",
+        description=_DESCRIPTION,
+        formatter_class=argparse.RawDescriptionHelpFormatter,
+        epilog="Exit status: 0 all checked joints pass, 1 some joint fails or needs design, "
+        "2 bad input or usage, 3 internal error.",
+    )
+    parser.add_argument("--version", action="version", version=f"joint-audit {__version__}")
+    sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
+
+    p = sub.add_parser(
+        "inspect",
+        help="what the model holds: schema, units, members, sections, grades, warnings; --joints lists the joints",
+        description="Read a model and report what joint-audit finds in it.\n\nCAUTION: " + CAUTION,
+        formatter_class=argparse.RawDescriptionHelpFormatter,
+    )
+    p.add_argument("model", metavar="MODEL.ifc", help="the IFC file to read (IFC2X3, IFC4 or IFC4X3); never modified")
+    p.add_argument("--joints", action="store_true", help="also find every beam-end joint with kind, stiffness and reasons")
+    p.add_argument("--json", action="store_true", help="print JSON instead of text")
+    p.add_argument("--config", metavar="FILE.toml", help="configuration (tolerances, support policy, default grade)")
+
+    p = sub.add_parser(
+        "demo",
+        help="build the bundled demo model (an invented project) and inspect its joints",
+        description="Build the demo model of our invented project into a folder and report on it.\n\nCAUTION: " + CAUTION,
+        formatter_class=argparse.RawDescriptionHelpFormatter,
+    )
+    p.add_argument("--out", metavar="DIR", default="joint-audit-demo", help="output folder (default: %(default)s)")
+
+    p = sub.add_parser(
+        "rules",
+        help="list the installed design-code rule sets, their checks and data sources",
+        description="List the installed design-code rule sets.\n\nCAUTION: " + CAUTION,
+        formatter_class=argparse.RawDescriptionHelpFormatter,
+    )
+    p.add_argument("--json", action="store_true", help="print JSON instead of text")
+    return parser
+
+
+def load_frame(path: str | os.PathLike[str], config: dict[str, Any]):
+    """Open the model at ``path`` and read the frame, explicit connectivity included."""
+    import ifc_io
+    from ifc_io.connectivity import read_explicit_connections
+
+    from engine.config import DEFAULT_GRADE_BY_CODE
+
+    model = ifc_io.open_model(path)
+    grade = config["materials"]["default_grade"] or DEFAULT_GRADE_BY_CODE.get(config["code"], "default")
+    frame = ifc_io.read_frame(model, default_steel=grade, config=config)
+    # keep the file name the user gave, not the resolved path, for display
+    frame = dataclasses.replace(frame, file=str(path))
+    conns, warns = read_explicit_connections(model)
+    return dataclasses.replace(frame, connections=tuple(conns), warnings=tuple(frame.warnings) + tuple(warns))
+
+
+def _find_joints(frame, config: dict[str, Any]):
+    from engine.joints import find_joints
+    from engine.tolerances import Tolerances
+
+    return find_joints(
+        frame.members,
+        frame.bearings,
+        frame.connections,
+        tolerances=Tolerances.from_config(config.get("tolerances", {})),
+        policy=config["support"]["policy"],
+    )
+
+
+def _format_joint_rows(rows: list[dict[str, Any]], unresolved: list[dict[str, Any]]) -> str:
+    lines = [f"joints         {len(rows)}"]
+    for r in rows:
+        support = r.get("support_label") or r.get("support") or "-"
+        lines.append(
+            f"  {r['id']}  {r.get('beam_label') or r['beam']} [{r['end']}] -> {support}: "
+            f"{r['kind']}, {r['stiffness']}"
+        )
+        for reason in r.get("reasons", []):
+            lines.append(f"      · {reason}")
+    lines.append(f"unresolved     {len(unresolved)}")
+    for u in unresolved:
+        lines.append(f"  {u['beam']} [{u['end']}]: {u['reason']}")
+    return "\n".join(lines)
+
+
+def _cmd_inspect(args: argparse.Namespace) -> int:
+    from engine.config import load_config
+    from engine.inspect import format_summary, summarise_frame
+
+    config = load_config(args.config)
+    frame = load_frame(args.model, config)
+    summary = summarise_frame(frame)
+    out: dict[str, Any] = {"tool": {"name": "joint-audit", "version": __version__}, "caution": CAUTION, **summary}
+    text = format_summary(summary)
+    if args.joints:
+        from engine.joints import joint_rows
+
+        finding = _find_joints(frame, config)
+        rows = joint_rows(finding, frame.members)
+        unresolved = [dataclasses.asdict(u) for u in finding.unresolved]
+        out["joints"] = rows
+        out["unresolved"] = unresolved
+        out["joint_warnings"] = [{"global_id": w.global_id, "message": w.message} for w in finding.warnings]
+        text += "\n" + _format_joint_rows(rows, unresolved)
+    if args.json:
+        sys.stdout.write(json.dumps(out, indent=2, sort_keys=False, default=str) + "\n")
+    else:
+        sys.stdout.write(f"CAUTION: {CAUTION}\n\n{text}\n")
+    return 0
+
+
+def _prepare_out_dir(path: str) -> Path:
+    out = Path(path)
+    if out.exists() and not out.is_dir():
+        raise OutputError(f"output folder {out} exists and is not a folder")
+    try:
+        out.mkdir(parents=True, exist_ok=True)
+    except OSError as exc:
+        raise OutputError(f"cannot create output folder {out}: {exc.strerror or exc}") from None
+    if not os.access(out, os.W_OK):
+        raise OutputError(f"output folder {out} is not writable")
+    return out
+
+
+def _cmd_demo(args: argparse.Namespace) -> int:
+    from samples.generate_demo import build_demo
+
+    out = _prepare_out_dir(args.out)
+    paths = build_demo(out)
+    sys.stdout.write(f"CAUTION: {CAUTION}\n\nDemo model of our invented project written to {out}:\n")
+    for label, p in paths.items():
+        sys.stdout.write(f"  {label:8s} {p}\n")
+    ifc = paths.get("ifc4")
+    if ifc is not None:
+        ns = argparse.Namespace(model=str(ifc), joints=True, json=False, config=None)
+        cfg = paths.get("config")
+        if cfg is not None:
+            ns.config = str(cfg)
+        sys.stdout.write("\n")
+        return _cmd_inspect(ns)
+    return 0
+
+
+def _cmd_rules(args: argparse.Namespace) -> int:
+    import rules
+
+    listing = []
+    for code_id in rules.available():
+        rs = rules.load(code_id)
+        listing.append(
+            {
+                "code": code_id,
+                "title": rs.title,
+                "checks": [{"name": n, "clause": c} for n, c in rs.check_list()],
+                "data_sources": list(rs.data_sources()),
+                "ultimate_combination": rs.ultimate_combination(),
+            }
+        )
+    if args.json:
+        sys.stdout.write(json.dumps({"caution": CAUTION, "rule_sets": listing}, indent=2, default=str) + "\n")
+        return 0
+    lines = [f"CAUTION: {CAUTION}", ""]
+    for item in listing:
+        lines.append(f"{item['code']}: {item['title']}")
+        lines.append("  checks:")
+        lines.extend(f"    - {c['name']} ({c['clause']})" for c in item["checks"])
+        lines.append("  data sources:")
+        lines.extend(f"    - {s}" for s in item["data_sources"])
+        lines.append("")
+    sys.stdout.write("\n".join(lines))
+    return 0
+
+
+_COMMANDS = {"inspect": _cmd_inspect, "demo": _cmd_demo, "rules": _cmd_rules}
+
+
+def main(argv: Sequence[str] | None = None) -> int:
+    """Run the CLI; returns the exit status (the console script exits with it)."""
+    parser = build_parser()
+    args = parser.parse_args(argv)
+    if not args.command:
+        parser.print_help()
+        return 2
+    try:
+        return _COMMANDS[args.command](args)
+    except JointAuditError as exc:
+        sys.stderr.write(f"joint-audit: error: {exc}\n")
+        return 2
+    except KeyboardInterrupt:
+        sys.stderr.write("joint-audit: interrupted\n")
+        return 130
+    except BrokenPipeError:
+        return 0
+    except Exception as exc:  # a bug: one line, no traceback unless asked for
+        if os.environ.get("JOINT_AUDIT_DEBUG"):
+            raise
+        sys.stderr.write(
+            f"joint-audit: internal error: {type(exc).__name__}: {exc} "
+            f"(set JOINT_AUDIT_DEBUG=1 for details and please report it)\n"
+        )
+        return 3
+
+
+def _entry() -> None:  # pragma: no cover - console script shim
+    sys.exit(main())
+
+
+if __name__ == "__main__":  # pragma: no cover
+    sys.exit(main())

@@ -1,0 +1,172 @@
+"""The audit configuration (TOML): defaults, loading and validation (DESIGN.md §5).
+
+Every key is optional. Unknown keys and wrong types are errors (:class:`ConfigError`) that name the
+file and the key, so a typo never silently falls back to a default. ``joint-audit audit
+--show-config`` prints the effective configuration.
+"""
+
+from __future__ import annotations
+
+import copy
+import tomllib
+from pathlib import Path
+from typing import Any
+
+from engine.errors import ConfigError
+
+__all__ = ["DEFAULTS", "DEFAULT_GRADE_BY_CODE", "load_config", "merge_config", "dumps_toml"]
+
+DEFAULTS: dict[str, Any] = {
+    "code": "as4100",
+    "support": {"policy": "conservative"},
+    "demand": {
+        "order": ["model", "schedule", "tributary", "capacity-fraction"],
+        "self_weight": True,
+        "capacity_fraction": 0.5,
+        "start_shear": "",
+        "end_shear": "",
+        "area_loads": [],
+    },
+    "materials": {"default_grade": ""},
+    "tolerances": {
+        "joint_gap_mm": 50.0,
+    },
+}
+"""Built-in defaults. ``materials.default_grade = ""`` means the code's usual grade
+(:data:`DEFAULT_GRADE_BY_CODE`)."""
+
+DEFAULT_GRADE_BY_CODE: dict[str, str] = {"as4100": "300", "en1993": "S355", "aisc360": "A992"}
+"""Steel grade assumed, with a warning, for members whose material the model does not name."""
+
+_AREA_LOAD_KEYS = {"storey": str, "dead_kPa": (int, float), "live_kPa": (int, float)}
+_DEMAND_SOURCES = ("model", "schedule", "tributary", "capacity-fraction")
+_POLICIES = ("conservative", "classified", "envelope")
+
+
+def _check_types(data: dict[str, Any], ref: dict[str, Any], where: str, path: str) -> None:
+    for key, value in data.items():
+        dotted = f"{path}{key}"
+        if key not in ref:
+            valid = ", ".join(sorted(ref))
+            raise ConfigError(f"{where}: unknown key '{dotted}' (valid keys here: {valid})")
+        want = ref[key]
+        if isinstance(want, dict):
+            if not isinstance(value, dict):
+                raise ConfigError(f"{where}: '{dotted}' must be a table [{dotted}]")
+            _check_types(value, want, where, dotted + ".")
+        elif isinstance(want, bool):
+            if not isinstance(value, bool):
+                raise ConfigError(f"{where}: '{dotted}' must be true or false, not {value!r}")
+        elif isinstance(want, (int, float)):
+            if isinstance(value, bool) or not isinstance(value, (int, float)):
+                raise ConfigError(f"{where}: '{dotted}' must be a number, not {value!r}")
+        elif isinstance(want, str):
+            if not isinstance(value, str):
+                raise ConfigError(f"{where}: '{dotted}' must be a string, not {value!r}")
+        elif isinstance(want, list):
+            if not isinstance(value, list):
+                raise ConfigError(f"{where}: '{dotted}' must be a list, not {value!r}")
+
+
+def _validate(cfg: dict[str, Any], where: str) -> None:
+    if cfg["support"]["policy"] not in _POLICIES:
+        raise ConfigError(
+            f"{where}: 'support.policy' is {cfg['support']['policy']!r}; use one of {', '.join(_POLICIES)}"
+        )
+    for item in cfg["demand"]["order"]:
+        if item not in _DEMAND_SOURCES:
+            raise ConfigError(
+                f"{where}: 'demand.order' has {item!r}; the sources are {', '.join(_DEMAND_SOURCES)}"
+            )
+    frac = cfg["demand"]["capacity_fraction"]
+    if not 0.0 < frac <= 1.0:
+        raise ConfigError(f"{where}: 'demand.capacity_fraction' is {frac}; it must be in (0, 1]")
+    if cfg["tolerances"]["joint_gap_mm"] < 0:
+        raise ConfigError(f"{where}: 'tolerances.joint_gap_mm' must not be negative")
+    for i, entry in enumerate(cfg["demand"]["area_loads"]):
+        key = f"demand.area_loads[{i}]"
+        if not isinstance(entry, dict):
+            raise ConfigError(f"{where}: '{key}' must be a table with storey, dead_kPa, live_kPa")
+        for k, v in entry.items():
+            if k not in _AREA_LOAD_KEYS:
+                raise ConfigError(f"{where}: unknown key '{key}.{k}' (valid: storey, dead_kPa, live_kPa)")
+            if not isinstance(v, _AREA_LOAD_KEYS[k]) or isinstance(v, bool):
+                raise ConfigError(f"{where}: '{key}.{k}' has the wrong type ({v!r})")
+        for k in ("dead_kPa", "live_kPa"):
+            if entry.get(k, 0.0) < 0:
+                raise ConfigError(f"{where}: '{key}.{k}' must not be negative")
+
+
+def merge_config(base: dict[str, Any], override: dict[str, Any]) -> dict[str, Any]:
+    """A new config: ``override``'s values over ``base``'s, table by table (lists are replaced)."""
+    out = copy.deepcopy(base)
+    for key, value in override.items():
+        if isinstance(value, dict) and isinstance(out.get(key), dict):
+            out[key] = merge_config(out[key], value)
+        else:
+            out[key] = copy.deepcopy(value)
+    return out
+
+
+def load_config(path: str | Path | None = None, overrides: dict[str, Any] | None = None) -> dict[str, Any]:
+    """The effective configuration: defaults, then the TOML file at ``path``, then ``overrides``.
+
+    Raises :class:`ConfigError` naming the file, the key (or TOML line) and the problem.
+    """
+    cfg = copy.deepcopy(DEFAULTS)
+    if path is not None:
+        p = Path(path)
+        where = str(p)
+        if not p.is_file():
+            raise ConfigError(f"config file {where} does not exist or is not a file")
+        try:
+            data = tomllib.loads(p.read_text(encoding="utf-8"))
+        except UnicodeDecodeError:
+            raise ConfigError(f"{where}: not a UTF-8 text file") from None
+        except tomllib.TOMLDecodeError as exc:
+            raise ConfigError(f"{where}: not valid TOML ({exc})") from None
+        _check_types(data, DEFAULTS, where, "")
+        cfg = merge_config(cfg, data)
+    if overrides:
+        _check_types(overrides, DEFAULTS, "command line", "")
+        cfg = merge_config(cfg, overrides)
+    _validate(cfg, str(path) if path is not None else "config")
+    return cfg
+
+
+def _toml_value(v: Any) -> str:
+    if isinstance(v, bool):
+        return "true" if v else "false"
+    if isinstance(v, (int, float)):
+        return repr(v)
+    if isinstance(v, str):
+        return '"' + v.replace("\\", "\\\\").replace('"', '\\"') + '"'
+    if isinstance(v, list):
+        return "[" + ", ".join(_toml_value(x) for x in v) + "]"
+    raise TypeError(type(v))
+
+
+def dumps_toml(cfg: dict[str, Any]) -> str:
+    """The configuration as TOML text (for ``--show-config``); round-trips through :func:`load_config`."""
+    lines: list[str] = []
+    tables: list[tuple[str, dict[str, Any]]] = []
+    for key, value in cfg.items():
+        if isinstance(value, dict):
+            tables.append((key, value))
+        else:
+            lines.append(f"{key} = {_toml_value(value)}")
+    for name, table in tables:
+        lines.append("")
+        lines.append(f"[{name}]")
+        arrays: list[tuple[str, list[dict[str, Any]]]] = []
+        for key, value in table.items():
+            if isinstance(value, list) and value and all(isinstance(x, dict) for x in value):
+                arrays.append((key, value))
+            else:
+                lines.append(f"{key} = {_toml_value(value)}")
+        for key, items in arrays:
+            for item in items:
+                lines.append("")
+                lines.append(f"[[{name}.{key}]]")
+                lines.extend(f"{k} = {_toml_value(v)}" for k, v in item.items())
+    return "\n".join(lines) + "\n"
