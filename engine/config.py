@@ -14,7 +14,7 @@ from typing import Any
 
 from engine.errors import ConfigError
 
-__all__ = ["DEFAULTS", "DEFAULT_GRADE_BY_CODE", "load_config", "merge_config", "dumps_toml"]
+__all__ = ["DEFAULTS", "DEFAULT_GRADE_BY_CODE", "DEFAULT_PLATE_GRADE_BY_CODE", "DEFAULT_ELECTRODE_BY_CODE", "load_config", "merge_config", "dumps_toml"]
 
 DEFAULTS: dict[str, Any] = {
     "code": "as4100",
@@ -27,16 +27,35 @@ DEFAULTS: dict[str, Any] = {
         "end_shear": "",
         "area_loads": [],
     },
-    "materials": {"default_grade": ""},
-    "tolerances": {
-        "joint_gap_mm": 50.0,
-    },
+    "materials": {"default_grade": "", "plate_grade": ""},
+    "connections": {"weld_leg_mm": 6.0, "weld_electrode": "", "both_sides": True},
+    "tolerances": {},  # filled from engine.tolerances.Tolerances below (joint_gap_mm = 50, ...)
 }
-"""Built-in defaults. ``materials.default_grade = ""`` means the code's usual grade
-(:data:`DEFAULT_GRADE_BY_CODE`)."""
+"""Built-in defaults. ``materials.default_grade = ""`` means the code's usual member grade
+(:data:`DEFAULT_GRADE_BY_CODE`), ``materials.plate_grade = ""`` the code's usual plate grade
+(:data:`DEFAULT_PLATE_GRADE_BY_CODE`); ``connections.weld_*`` is the weld assumed for a modelled
+plate whose weld the model does not describe (``weld_electrode = ""``: the code's usual electrode,
+:data:`DEFAULT_ELECTRODE_BY_CODE`)."""
+
+def _tolerance_defaults() -> dict[str, float]:
+    from dataclasses import fields
+
+    from engine.tolerances import Tolerances
+
+    return {f.name: float(f.default) for f in fields(Tolerances)}
+
+
+DEFAULTS["tolerances"] = _tolerance_defaults()
 
 DEFAULT_GRADE_BY_CODE: dict[str, str] = {"as4100": "300", "en1993": "S355", "aisc360": "A992"}
 """Steel grade assumed, with a warning, for members whose material the model does not name."""
+
+DEFAULT_PLATE_GRADE_BY_CODE: dict[str, str] = {"as4100": "250", "en1993": "S275", "aisc360": "A36"}
+"""Plate grade assumed for scheduled or proposed plates with no grade of their own."""
+
+DEFAULT_ELECTRODE_BY_CODE: dict[str, str] = {"as4100": "E48XX", "en1993": "S275", "aisc360": "E70XX"}
+"""Weld electrode assumed where the model does not say (EN 1993-1-8 4.5.3.3 works from the parent
+metal's fu and βw, so the EN entry names the weaker parent grade)."""
 
 _AREA_LOAD_KEYS = {"storey": str, "dead_kPa": (int, float), "live_kPa": (int, float)}
 _DEMAND_SOURCES = ("model", "schedule", "tributary", "capacity-fraction")
@@ -81,8 +100,9 @@ def _validate(cfg: dict[str, Any], where: str) -> None:
     frac = cfg["demand"]["capacity_fraction"]
     if not 0.0 < frac <= 1.0:
         raise ConfigError(f"{where}: 'demand.capacity_fraction' is {frac}; it must be in (0, 1]")
-    if cfg["tolerances"]["joint_gap_mm"] < 0:
-        raise ConfigError(f"{where}: 'tolerances.joint_gap_mm' must not be negative")
+    for key, value in cfg["tolerances"].items():
+        if value < 0:
+            raise ConfigError(f"{where}: 'tolerances.{key}' must not be negative")
     for i, entry in enumerate(cfg["demand"]["area_loads"]):
         key = f"demand.area_loads[{i}]"
         if not isinstance(entry, dict):

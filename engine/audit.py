@@ -1,0 +1,135 @@
+"""The audit pipeline on a read frame: joints → demands → connections → checks → results document.
+
+Code-neutral and ifcopenshell-free: it takes the :class:`engine.model.Frame` the reader produced,
+the configuration, a rule set, and optional schedules, and returns plain results. Writing outputs
+(IFC copy, HTML, BCF, JSON, CSV) is the caller's job (the CLI, or :mod:`ifc_io.library` for an open
+model).
+
+An aid to a competent engineer: results must be checked; local codes and licensed practice take
+precedence.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from typing import Any, Callable, Mapping
+
+from engine.connection_schedule import ConnectionSchedule
+from engine.evaluate import FIN_PLATE_KINDS, ConnectionChoice, evaluate_joints
+from engine.config import DEFAULT_ELECTRODE_BY_CODE, DEFAULT_PLATE_GRADE_BY_CODE
+from engine.model import DataWarning, Frame, JointResult, Member, Steel, Weld
+
+__all__ = ["AuditOutcome", "run_audit", "Progress"]
+
+Progress = Callable[[str, int, int], None]
+"""``progress(stage, done, total)`` — called as work advances (the CLI draws a bar on a terminal)."""
+
+
+@dataclass(frozen=True)
+class AuditOutcome:
+    """Everything one audit produced: per-joint results, the results document, the joint finding
+    (with its graph), the members by GlobalId, and every warning of every stage."""
+
+    results: tuple[JointResult, ...]
+    doc: dict[str, Any]
+    finding: Any
+    members: Mapping[str, Member]
+    warnings: tuple[DataWarning, ...]
+
+
+def _quiet(stage: str, done: int, total: int) -> None:
+    return None
+
+
+def choose_connections(
+    finding,
+    frame: Frame,
+    members: Mapping[str, Member],
+    schedule: ConnectionSchedule | None,
+    steel_lookup: Callable[[str], Steel | None],
+    config: Mapping[str, Any],
+) -> tuple[dict[str, ConnectionChoice], list[DataWarning]]:
+    """For each fin-plate joint: the modelled connection if parts are found at it, else the
+    schedule's, else none (the joint then needs design)."""
+    from engine.connections import recover_fin_plates
+
+    shear_joints = [j for j in finding.joints if j.kind in FIN_PLATE_KINDS]
+    c = config["connections"]
+    weld = Weld(c["weld_leg_mm"], c["weld_electrode"] or DEFAULT_ELECTRODE_BY_CODE.get(config["code"], ""), c["both_sides"])
+    plate_grade = config["materials"]["plate_grade"] or DEFAULT_PLATE_GRADE_BY_CODE.get(config["code"], "")
+    modelled, warnings = recover_fin_plates(
+        frame.parts, shear_joints, members, steel_lookup=steel_lookup, default_weld=weld,
+        default_plate_grade=plate_grade,
+    )
+    choices: dict[str, ConnectionChoice] = {}
+    for j in shear_joints:
+        if j.id in modelled:
+            choices[j.id] = modelled[j.id]
+            continue
+        if schedule is not None:
+            entry = schedule.lookup(j, members[j.beam])
+            if entry is not None:
+                plate = entry.fin_plate(steel_lookup, plate_grade)
+                choices[j.id] = ConnectionChoice(plate, "scheduled", note=f"from {entry.where}")
+                continue
+        choices[j.id] = ConnectionChoice(None, "", note="no connection modelled or scheduled")
+    return choices, warnings
+
+
+def run_audit(
+    frame: Frame,
+    config: Mapping[str, Any],
+    ruleset,
+    *,
+    steel_lookup: Callable[[str], Steel | None],
+    demand_schedule=None,
+    connection_schedule: ConnectionSchedule | None = None,
+    baseline: Mapping[str, Mapping[str, Any]] | None = None,
+    run_date: str = "",
+    progress: Progress = _quiet,
+) -> AuditOutcome:
+    """Run the audit stages on ``frame`` and return the results (nothing is written)."""
+    from engine.demand import resolve_demands
+    from engine.joints import find_joints
+    from engine.results import baseline_marks, results_document
+    from engine.tolerances import Tolerances
+
+    policy = config["support"]["policy"]
+    progress("joints", 0, 1)
+    finding = find_joints(
+        frame.members, frame.bearings, frame.connections,
+        tolerances=Tolerances.from_config(config.get("tolerances", {})), policy=policy,
+    )
+    progress("joints", 1, 1)
+    members = {m.global_id: m for m in frame.members}
+    warnings: list[DataWarning] = list(frame.warnings) + list(finding.warnings)
+
+    progress("demand", 0, 1)
+    web_shear = getattr(ruleset, "web_shear_capacity", None)
+    demands, demand_warnings = resolve_demands(
+        finding.joints, members, dict(config), n_per_force_unit=frame.n_per_force_unit,
+        schedule=demand_schedule, combination=ruleset.ultimate_combination(), web_shear_capacity=web_shear,
+    )
+    warnings += demand_warnings
+    progress("demand", 1, 1)
+
+    choices, conn_warnings = choose_connections(finding, frame, members, connection_schedule, steel_lookup, config)
+    warnings += conn_warnings
+
+    results: list[JointResult] = []
+    total = len(finding.joints)
+    step = max(1, total // 100)
+    for i, j in enumerate(finding.joints):
+        results.extend(evaluate_joints([j], demands, choices, members, ruleset, policy))
+        if i % step == 0:
+            progress("checks", i, total)
+    progress("checks", total, total)
+
+    marks, removed = (None, [])
+    if baseline is not None:
+        marks, removed = baseline_marks(results, baseline)
+    doc = results_document(
+        results, frame, members, code=config["code"], code_title=getattr(ruleset, "title", ""),
+        baseline=marks, removed=removed, run_date=run_date, config=config, warnings=warnings,
+    )
+    return AuditOutcome(tuple(results), doc, finding, members, tuple(warnings))

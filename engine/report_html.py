@@ -1,0 +1,205 @@
+"""The HTML issue list: one self-contained page (no external assets, works offline, prints well).
+
+Every joint whose status is ``fail``, ``needs-design`` or ``incomplete`` is an issue, numbered by its
+stable joint id, with the two members (names and GlobalIds), storey and location, demand and its
+source, governing check and utilisation, every check with its clause, the stiffness reasons, and two
+drawings (the connection elevation and the storey plan marking the joint). The page filters by
+status, storey and kind and sorts by utilisation by itself (a few lines of inline script); without
+script every issue is simply listed.
+
+All text that comes from the model or the inputs is escaped.
+
+An aid to a competent engineer: results must be checked; local codes and licensed practice take
+precedence.
+"""
+
+from __future__ import annotations
+
+from html import escape
+from typing import Any, Mapping
+
+from engine.cautions import CAUTION
+from engine.evaluate import ISSUE_STATUSES
+
+__all__ = ["render_report", "issue_joints"]
+
+_CSS = """
+body{font:15px/1.45 system-ui,-apple-system,"Segoe UI",Roboto,sans-serif;color:#1d1d1d;margin:0;background:#fbfbf8}
+header,main,footer{max-width:1100px;margin:0 auto;padding:0 18px}
+h1{font-size:1.45em;margin:18px 0 4px} h2{font-size:1.1em;margin:0 0 6px}
+.meta{color:#555;margin:0 0 10px}
+.caution{border:2px solid #7a4f00;background:#fff7e6;padding:10px 14px;margin:12px 0;font-weight:600}
+table{border-collapse:collapse} td,th{padding:3px 8px;border-bottom:1px solid #ddd;text-align:left;vertical-align:top}
+th{background:#efefea} td.num,th.num{text-align:right;font-variant-numeric:tabular-nums}
+.summary td{min-width:70px}
+.controls{display:flex;flex-wrap:wrap;gap:12px;align-items:center;margin:14px 0;padding:8px 10px;background:#efefea}
+.controls label{font-weight:600} select,button{font:inherit}
+.issue{background:#fff;border:1px solid #cfcfc8;border-left:6px solid #888;margin:14px 0;padding:12px 14px;page-break-inside:avoid}
+.issue[data-status=fail]{border-left-color:#8e1b12} .issue[data-status=needs-design]{border-left-color:#8a6d00}
+.issue[data-status=incomplete]{border-left-color:#3d5a80}
+.tag{display:inline-block;border:1px solid #777;border-radius:3px;padding:0 6px;font-size:.85em;margin-right:6px;text-transform:uppercase;letter-spacing:.03em}
+.issue[data-status=fail] .tag.status{background:#8e1b12;color:#fff;border-color:#8e1b12}
+.issue[data-status=needs-design] .tag.status{background:#8a6d00;color:#fff;border-color:#8a6d00}
+.issue[data-status=incomplete] .tag.status{background:#3d5a80;color:#fff;border-color:#3d5a80}
+.facts{display:grid;grid-template-columns:max-content 1fr;gap:2px 14px;margin:8px 0}
+.facts dt{color:#555} .facts dd{margin:0}
+.drawings{display:flex;flex-wrap:wrap;gap:16px;margin-top:8px} figure{margin:0} figcaption{color:#555;font-size:.85em}
+tr.failed td{color:#8e1b12;font-weight:600} tr.incomplete td{color:#3d5a80}
+code{font-size:.9em}
+.none{padding:20px;background:#fff;border:1px solid #ddd}
+@media print{.controls{display:none} body{background:#fff} .issue{border-color:#999}}
+"""
+
+_JS = """
+(function(){
+  var list=document.getElementById('issues'); if(!list) return;
+  var items=Array.prototype.slice.call(list.querySelectorAll('.issue'));
+  var fs=document.getElementById('f-status'), fst=document.getElementById('f-storey'),
+      fk=document.getElementById('f-kind'), sortb=document.getElementById('sort-util'),
+      count=document.getElementById('shown-count'), desc=true;
+  function apply(){
+    var n=0;
+    items.forEach(function(el){
+      var ok=(!fs.value||el.dataset.status===fs.value)&&(!fst.value||el.dataset.storey===fst.value)&&
+             (!fk.value||el.dataset.kind===fk.value);
+      el.hidden=!ok; if(ok) n++;
+    });
+    count.textContent=n;
+  }
+  function sort(){
+    items.sort(function(a,b){var x=parseFloat(a.dataset.util)||-1, y=parseFloat(b.dataset.util)||-1;
+      return desc? y-x : x-y;});
+    items.forEach(function(el){list.appendChild(el);});
+    sortb.textContent='Utilisation '+(desc?'\\u2193 highest first':'\\u2191 lowest first');
+    desc=!desc;
+  }
+  [fs,fst,fk].forEach(function(s){s.addEventListener('change',apply);});
+  sortb.addEventListener('click',sort);
+  apply();
+})();
+"""
+
+
+def issue_joints(doc: Mapping[str, Any]) -> list[Mapping[str, Any]]:
+    """The joints of a results document that are issues, in joint-id order."""
+    return [j for j in doc["joints"] if j["status"] in ISSUE_STATUSES]
+
+
+def _fmt(v: Any, nd: int = 2) -> str:
+    if v is None:
+        return "–"
+    if isinstance(v, float):
+        return f"{v:.{nd}f}"
+    return escape(str(v))
+
+
+def _options(values: list[str], label_all: str) -> str:
+    opts = [f'<option value="">{escape(label_all)}</option>']
+    opts += [f'<option value="{escape(v, quote=True)}">{escape(v) or "(none)"}</option>' for v in values]
+    return "".join(opts)
+
+
+def _checks_table(checks: list[Mapping[str, Any]]) -> str:
+    if not checks:
+        return ""
+    rows = []
+    for c in checks:
+        cls = "incomplete" if c.get("incomplete") else ("" if c["passed"] else "failed")
+        verdict = "incomplete" if c.get("incomplete") else ("ok" if c["passed"] else "FAILS")
+        rows.append(
+            f'<tr class="{cls}"><td>{escape(c["name"])}</td><td>{escape(c["clause"])}</td>'
+            f'<td class="num">{_fmt(c["demand"])}</td><td class="num">{_fmt(c["capacity"])}</td>'
+            f'<td>{escape(c["unit"])}</td><td class="num">{_fmt(c["utilisation"], 3)}</td><td>{verdict}</td>'
+            f'<td>{escape(c.get("note") or "")}</td></tr>'
+        )
+    return (
+        '<table class="checks"><thead><tr><th>check</th><th>clause</th><th class="num">demand</th>'
+        '<th class="num">capacity</th><th>unit</th><th class="num">utilisation</th><th>result</th><th>note</th>'
+        "</tr></thead><tbody>" + "".join(rows) + "</tbody></table>"
+    )
+
+
+def _issue(j: Mapping[str, Any], drawings: Mapping[str, str]) -> str:
+    d = j.get("demand")
+    demand = "not known" if d is None else f"V* = {_fmt(d['V_kN'], 1)} kN, N* = {_fmt(d['N_kN'], 1)} kN — {escape(d['source'])}" + (
+        f" ({escape(d['combination'])})" if d.get("combination") else "")
+    loc = j.get("location_mm") or []
+    loc_txt = ", ".join(f"{v / 1000:.3f}" for v in loc if v is not None) + " m" if loc else "–"
+    util = j.get("utilisation")
+    reasons = "".join(f"<li>{escape(r)}</li>" for r in j.get("stiffness_reasons") or [])
+    missing = "".join(f"<li>{escape(m)}</li>" for m in j.get("missing") or [])
+    conn = j.get("connection")
+    baseline = f'<span class="tag">{escape(j["baseline"])}</span>' if j.get("baseline") else ""
+    title = f"{escape(j.get('beam_name') or j['beam'])} ({escape(j['end'])} end) on {escape(j.get('support_name') or j.get('support') or 'no support')}"
+    figs = ""
+    if drawings.get("elevation"):
+        figs += f"<figure>{drawings['elevation']}<figcaption>Connection elevation (schematic, mm)</figcaption></figure>"
+    if drawings.get("plan"):
+        figs += f"<figure>{drawings['plan']}<figcaption>Plan of {escape(j.get('storey') or 'the storey')}; the ring marks the joint</figcaption></figure>"
+    return (
+        f'<article class="issue" id="{escape(j["id"], quote=True)}" data-status="{escape(j["status"], quote=True)}" '
+        f'data-storey="{escape(j.get("storey") or "", quote=True)}" data-kind="{escape(j["kind"], quote=True)}" '
+        f'data-util="{"" if util is None else util}">'
+        f'<h2><span class="tag status">{escape(j["status"])}</span>{baseline}Issue {escape(j["id"])} — {title}</h2>'
+        '<dl class="facts">'
+        f'<dt>beam</dt><dd>{escape(j.get("beam_name") or "")} <code>{escape(j["beam"])}</code> {escape(j.get("beam_section") or "")}</dd>'
+        f'<dt>support</dt><dd>{escape(j.get("support_name") or "")} <code>{escape(j.get("support") or "none")}</code> {escape(j.get("support_section") or "")}</dd>'
+        f'<dt>joint</dt><dd>{escape(j["kind"])}, support {escape(j["stiffness"])}</dd>'
+        f'<dt>storey</dt><dd>{escape(j.get("storey") or "–")}; location {escape(loc_txt)}</dd>'
+        f'<dt>demand</dt><dd>{demand}</dd>'
+        f'<dt>connection</dt><dd>{escape(conn["summary"]) + " (" + escape(conn["source"]) + ")" if conn else "none"}</dd>'
+        f'<dt>governing</dt><dd>{escape(j.get("governing") or "–")}; utilisation {_fmt(util, 3)}</dd>'
+        + (f'<dt>note</dt><dd>{escape(j["note"])}</dd>' if j.get("note") else "")
+        + "</dl>"
+        + (f"<p><strong>Missing:</strong></p><ul>{missing}</ul>" if missing else "")
+        + (f"<p><strong>Why the support is {escape(j['stiffness'])}:</strong></p><ul>{reasons}</ul>" if reasons else "")
+        + _checks_table(j.get("checks") or [])
+        + (f'<div class="drawings">{figs}</div>' if figs else "")
+        + "</article>"
+    )
+
+
+def render_report(doc: Mapping[str, Any], drawings: Mapping[str, Mapping[str, str]] | None = None, symbols: str = "") -> str:
+    """The whole HTML page for a results document. ``drawings`` maps joint id →
+    ``{"elevation": svg, "plan": svg}`` (SVG made by this program, inserted as is)."""
+    drawings = drawings or {}
+    issues = issue_joints(doc)
+    s = doc["summary"]
+    storeys = sorted({j.get("storey") or "" for j in issues})
+    kinds = sorted({j["kind"] for j in issues})
+    statuses = [st for st in ISSUE_STATUSES if any(j["status"] == st for j in issues)]
+    summary_cells = "".join(f"<th class='num'>{escape(k)}</th>" for k in ("joints", "pass", "fail", "needs-design", "incomplete", "not-checked"))
+    summary_vals = "".join(f"<td class='num'>{s.get(k, 0)}</td>" for k in ("joints", "pass", "fail", "needs-design", "incomplete", "not-checked"))
+    body = "".join(_issue(j, drawings.get(j["id"], {})) for j in issues)
+    removed = doc.get("baseline_removed") or []
+    removed_html = ""
+    if removed:
+        items = "".join(f"<li><code>{escape(r['id'])}</code> beam <code>{escape(str(r.get('beam')))}</code> ({escape(str(r.get('end')))}) — was {escape(str(r.get('status')))}, joint no longer in the model</li>" for r in removed)
+        removed_html = f"<h2>Resolved since the baseline (joint removed)</h2><ul>{items}</ul>"
+    model = doc["model"]
+    return (
+        "<!DOCTYPE html><html lang='en'><head><meta charset='utf-8'>"
+        f"<title>Connection audit — {escape(model['file'])}</title>"
+        "<meta name='viewport' content='width=device-width, initial-scale=1'>"
+        f"<style>{_CSS}</style></head><body><header>"
+        f"<h1>Connection audit — {escape(model['file'])}</h1>"
+        f"<p class='meta'>{escape(model.get('schema', ''))}, lengths in {escape(model.get('length_unit', ''))} · "
+        f"design code {escape(doc.get('code_title') or doc.get('code', ''))} · support policy {escape(doc.get('policy') or '')} · "
+        f"{escape(doc['tool']['name'])} {escape(doc['tool']['version'])} · {escape((doc.get('run') or {}).get('date', ''))}</p>"
+        f"<div class='caution' role='note'>CAUTION: {escape(CAUTION)}</div>"
+        f"<table class='summary'><tr>{summary_cells}</tr><tr>{summary_vals}</tr></table>"
+        "</header><main>"
+        f"{symbols}"
+        "<div class='controls'>"
+        f"<label for='f-status'>Status</label><select id='f-status'>{_options(statuses, 'all statuses')}</select>"
+        f"<label for='f-storey'>Storey</label><select id='f-storey'>{_options(storeys, 'all storeys')}</select>"
+        f"<label for='f-kind'>Kind</label><select id='f-kind'>{_options(kinds, 'all kinds')}</select>"
+        "<button type='button' id='sort-util'>Utilisation ↓ highest first</button>"
+        f"<span><strong id='shown-count'>{len(issues)}</strong> of {len(issues)} issues shown</span>"
+        "</div>"
+        + (f"<section id='issues'>{body}</section>" if issues else "<p class='none'>No issues: every checked joint passes.</p><section id='issues'></section>")
+        + removed_html
+        + "</main><footer><p class='meta'>Generated by joint-audit. Drawings are schematic. "
+        f"{escape(CAUTION)}</p></footer>"
+        f"<script>{_JS}</script></body></html>"
+    )

@@ -1,0 +1,230 @@
+"""``results.json`` (the contract other tools read, DESIGN.md §5), the baseline comparison and the CSV
+connection schedule.
+
+Forces are shown in kN (``V_kN``), checks keep the unit they were computed in, converted to kN / kN·m
+for display (``unit`` says which). Output is deterministic: joints in id order, keys in a fixed order,
+floats rounded to a fixed number of significant figures, and the run's timestamp only in
+``run.date``.
+
+An aid to a competent engineer: results must be checked; local codes and licensed practice take
+precedence.
+"""
+
+from __future__ import annotations
+
+import csv
+import io
+import json
+import math
+from dataclasses import asdict
+from pathlib import Path
+from typing import Any, Mapping, Sequence
+
+from engine import __version__
+from engine.cautions import CAUTION
+from engine.errors import BadInputError
+from engine.evaluate import ISSUE_STATUSES
+from engine.model import STATUSES, Check, FinPlate, Frame, JointResult, Member
+
+__all__ = [
+    "results_document",
+    "check_to_display",
+    "connection_summary",
+    "read_baseline",
+    "baseline_marks",
+    "schedule_csv",
+]
+
+
+def _r(x: float | None, sig: int = 6) -> float | None:
+    if x is None:
+        return None
+    if not math.isfinite(x):
+        return None
+    if x == 0:
+        return 0.0
+    return float(f"{x:.{sig}g}")
+
+
+_DISPLAY = {"N": ("kN", 1e-3), "N·mm": ("kN·m", 1e-6), "N/mm": ("kN/m", 1.0), "mm": ("mm", 1.0), "MPa": ("MPa", 1.0), "-": ("-", 1.0)}
+
+
+def check_to_display(c: Check) -> dict[str, Any]:
+    """A check as results.json writes it: forces in kN, moments in kN·m, lengths in mm."""
+    unit, f = _DISPLAY.get(c.unit, (c.unit, 1.0))
+    return {
+        "name": c.name,
+        "clause": c.clause,
+        "demand": _r(c.demand * f),
+        "capacity": _r(c.capacity * f),
+        "unit": unit,
+        "utilisation": _r(c.utilisation, 4),
+        "passed": bool(c.passed),
+        "incomplete": bool(c.incomplete),
+        "note": c.note,
+    }
+
+
+def connection_summary(p: FinPlate) -> str:
+    """One line naming the connection, e.g. ``"fin plate 10 x 230 x 100 Gr 300, 3 x M20 8.8 (3 rows x 1 line), 6 mm E48XX both sides"``."""
+    side = "both sides" if p.weld.both_sides else "one side"
+    return (
+        f"fin plate {p.thickness:g} x {p.depth:g} x {p.width:g} {p.steel.grade}, "
+        f"{p.n_bolts} x {p.bolts.size} {p.bolts.grade} ({p.rows} rows x {p.lines} line{'s' if p.lines > 1 else ''}), "
+        f"{p.weld.leg:g} mm {p.weld.electrode} {side}"
+    )
+
+
+def _connection_dict(p: FinPlate | None) -> dict[str, Any] | None:
+    if p is None:
+        return None
+    d = asdict(p)
+    d["summary"] = connection_summary(p)
+    d["n_bolts"] = p.n_bolts
+    return d
+
+
+def results_document(
+    results: Sequence[JointResult],
+    frame: Frame,
+    members: Mapping[str, Member],
+    code: str,
+    code_title: str = "",
+    baseline: Mapping[str, str | None] | None = None,
+    removed: Sequence[dict[str, Any]] = (),
+    run_date: str = "",
+    config: Mapping[str, Any] | None = None,
+    warnings: Sequence[Any] = (),
+) -> dict[str, Any]:
+    """The results.json document for one audit run."""
+    summary = {"joints": len(results), **{s: 0 for s in STATUSES}}
+    joints = []
+    for res in sorted(results, key=lambda r: r.joint.id):
+        j = res.joint
+        summary[res.status] += 1
+        beam = members.get(j.beam)
+        support = members.get(j.support) if j.support else None
+        g = j.geometry
+        joints.append(
+            {
+                "id": j.id,
+                "beam": j.beam,
+                "beam_name": beam.label if beam else "",
+                "beam_section": beam.section.name if beam else "",
+                "end": j.end,
+                "support": j.support,
+                "support_name": support.label if support else "",
+                "support_section": support.section.name if support else "",
+                "storey": beam.storey if beam else "",
+                "location_mm": [_r(v) for v in g.location],
+                "kind": j.kind,
+                "stiffness": j.stiffness,
+                "stiffness_reasons": list(j.reasons),
+                "geometry": {
+                    "angle_deg": _r(g.angle_deg),
+                    "gap_mm": _r(g.gap),
+                    "tos_diff_mm": _r(g.tos_diff),
+                    "copes": [asdict(c) for c in g.copes],
+                    "support_continuous": g.support_continuous,
+                    "back_to_back": g.back_to_back,
+                },
+                "demand": None
+                if res.demand is None
+                else {
+                    "V_kN": _r(res.demand.V * 1e-3),
+                    "N_kN": _r(res.demand.N * 1e-3),
+                    "source": res.demand.source,
+                    "combination": res.demand.combination,
+                },
+                "connection": _connection_dict(res.connection),
+                "checks": [check_to_display(c) for c in res.checks],
+                "utilisation": _r(res.utilisation, 4),
+                "governing": res.governing,
+                "status": res.status,
+                "missing": list(res.missing),
+                "note": res.note,
+                "baseline": (baseline or {}).get(j.id) if baseline is not None else None,
+            }
+        )
+    return {
+        "tool": {"name": "joint-audit", "version": __version__},
+        "caution": CAUTION,
+        "run": {"date": run_date},
+        "model": {
+            "file": Path(frame.file).name,
+            "schema": frame.schema,
+            "length_unit": frame.length_unit,
+            "force_unit": frame.force_unit,
+        },
+        "code": code,
+        "code_title": code_title,
+        "policy": (config or {}).get("support", {}).get("policy", ""),
+        "summary": summary,
+        "joints": joints,
+        "baseline_removed": list(removed),
+        "warnings": [{"global_id": getattr(w, "global_id", None), "message": str(getattr(w, "message", w))} for w in warnings],
+    }
+
+
+def read_baseline(path: str | Path) -> dict[str, dict[str, Any]]:
+    """Joints of an earlier results.json keyed by id. Raises :class:`BadInputError` naming the file."""
+    p = Path(path)
+    if not p.is_file():
+        raise BadInputError(f"baseline {p} does not exist or is not a file")
+    try:
+        doc = json.loads(p.read_text(encoding="utf-8"))
+    except (UnicodeDecodeError, json.JSONDecodeError) as exc:
+        raise BadInputError(f"baseline {p} is not a joint-audit results.json ({exc})") from None
+    if not isinstance(doc, dict) or not isinstance(doc.get("joints"), list):
+        raise BadInputError(f"baseline {p} is not a joint-audit results.json (no 'joints' list)")
+    out: dict[str, dict[str, Any]] = {}
+    for i, j in enumerate(doc["joints"]):
+        if not isinstance(j, dict) or not isinstance(j.get("id"), str) or not isinstance(j.get("status"), str):
+            raise BadInputError(f"baseline {p}: joints[{i}] has no string 'id' and 'status'")
+        out[j["id"]] = j
+    return out
+
+
+def baseline_marks(
+    results: Sequence[JointResult], old: Mapping[str, Mapping[str, Any]]
+) -> tuple[dict[str, str | None], list[dict[str, Any]]]:
+    """Mark each joint against an earlier run: ``new`` (an issue now, not before), ``open`` (an issue
+    both times), ``resolved`` (an issue before, not now), ``None`` (no issue either time). Also the
+    earlier issues whose joints are gone from the model (resolved by removal)."""
+    marks: dict[str, str | None] = {}
+    for r in results:
+        now = r.status in ISSUE_STATUSES
+        before_j = old.get(r.joint.id)
+        before = before_j is not None and before_j.get("status") in ISSUE_STATUSES
+        marks[r.joint.id] = "open" if now and before else "new" if now else "resolved" if before else None
+    current = {r.joint.id for r in results}
+    removed = [
+        {"id": jid, "beam": j.get("beam"), "end": j.get("end"), "support": j.get("support"), "status": j.get("status"), "baseline": "resolved"}
+        for jid, j in sorted(old.items())
+        if jid not in current and j.get("status") in ISSUE_STATUSES
+    ]
+    return marks, removed
+
+
+SCHEDULE_COLUMNS = (
+    "joint_id", "beam", "beam_name", "end", "support", "support_name", "storey", "kind", "stiffness",
+    "V_kN", "demand_source", "connection", "utilisation", "governing", "status", "baseline",
+)
+
+
+def schedule_csv(doc: Mapping[str, Any]) -> str:
+    """The connection schedule (one row per joint) as CSV text, from a results document."""
+    buf = io.StringIO()
+    w = csv.writer(buf, lineterminator="\n")
+    w.writerow(SCHEDULE_COLUMNS)
+    for j in doc["joints"]:
+        w.writerow([
+            j["id"], j["beam"], j["beam_name"], j["end"], j["support"] or "", j["support_name"], j["storey"],
+            j["kind"], j["stiffness"],
+            "" if j["demand"] is None else j["demand"]["V_kN"],
+            "" if j["demand"] is None else j["demand"]["source"],
+            "" if j["connection"] is None else j["connection"]["summary"],
+            "" if j["utilisation"] is None else j["utilisation"],
+            j["governing"] or "", j["status"], j["baseline"] or "",
+        ])
+    return buf.getvalue()

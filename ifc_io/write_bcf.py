@@ -1,0 +1,266 @@
+"""Write the audit's issues as a BCF file (buildingSMART BCF-XML 2.1, or 3.0 on request).
+
+One topic per issue joint (status ``fail``, ``needs-design`` or ``incomplete``), plus a *closed* topic
+for each issue of a baseline run that is now resolved, so a coordination tool that re-imports the file
+updates its topics instead of piling up duplicates:
+
+* topic, viewpoint and comment GUIDs derive from the joint id (uuid5 in a namespace of our own), so a
+  re-run writes the same GUIDs;
+* each topic has one viewpoint (``viewpoint.bcfv``) selecting the beam and its support by IfcGuid,
+  with a perspective camera looking at the joint, and a comment that points at that viewpoint;
+* a snapshot (``snapshot.png``) where one is given;
+* the markup ``Header`` names the model file and its IfcProject GlobalId.
+
+BCF coordinates are metres in the model's world coordinate system; joint locations arrive in mm.
+The zip is deterministic: fixed entry order and a fixed entry timestamp (the run date).
+
+An aid to a competent engineer: results must be checked; local codes and licensed practice take
+precedence.
+"""
+
+from __future__ import annotations
+
+import io
+import math
+import uuid
+import zipfile
+from typing import Any, Mapping, Sequence
+
+from lxml import etree
+
+from engine.errors import OutputError
+
+__all__ = ["topic_guid", "bcf_archive", "BCF_VERSIONS", "ISSUE_STATUSES"]
+
+BCF_VERSIONS = ("2.1", "3.0")
+ISSUE_STATUSES = ("fail", "needs-design", "incomplete")
+_NS = uuid.UUID("0d6f4a0e-3c1b-5e7a-9b8c-5a4d3e2f1b0c")
+_AUTHOR = "joint-audit"
+
+_TITLES = {
+    "fail": "Connection fails",
+    "needs-design": "Connection needs design",
+    "incomplete": "Connection check incomplete",
+}
+
+
+def topic_guid(joint_id: str) -> str:
+    """The BCF topic GUID of a joint's issue (lower-case, stable across runs)."""
+    return str(uuid.uuid5(_NS, f"topic|{joint_id}"))
+
+
+def _guid(joint_id: str, what: str) -> str:
+    return str(uuid.uuid5(_NS, f"{what}|{joint_id}"))
+
+
+def _sub(parent, tag: str, text: str | None = None, **attrs: str):
+    el = etree.SubElement(parent, tag, {k: v for k, v in attrs.items() if v is not None})
+    if text is not None:
+        el.text = text
+    return el
+
+
+def _xml(root) -> bytes:
+    return etree.tostring(root, xml_declaration=True, encoding="UTF-8", pretty_print=True)
+
+
+def _fmt(x: float) -> str:
+    return f"{x:.6f}".rstrip("0").rstrip(".") if x != 0 else "0"
+
+
+def _camera(location_mm: Sequence[float]) -> tuple[tuple[float, ...], tuple[float, ...], tuple[float, ...]]:
+    """A perspective camera 4 m back along (-1, -1, +0.6) from the joint, looking at it (metres)."""
+    target = [v / 1000.0 for v in location_mm]
+    d = (1.0, 1.0, -0.6)
+    n = math.sqrt(sum(c * c for c in d))
+    d = tuple(c / n for c in d)
+    eye = tuple(t - 4.0 * c for t, c in zip(target, d))
+    # up vector: world Z made orthogonal to the view direction
+    z = (0.0, 0.0, 1.0)
+    dot = sum(a * b for a, b in zip(z, d))
+    up = tuple(a - dot * b for a, b in zip(z, d))
+    un = math.sqrt(sum(c * c for c in up))
+    return eye, d, tuple(c / un for c in up)
+
+
+def _point(parent, tag: str, xyz: Sequence[float]) -> None:
+    el = _sub(parent, tag)
+    for axis, v in zip("XYZ", xyz):
+        _sub(el, axis, _fmt(v))
+
+
+def _describe(j: Mapping[str, Any]) -> str:
+    parts = [f"Joint {j['id']}: {j.get('beam_name') or j['beam']} ({j['end']} end) on "
+             f"{j.get('support_name') or j.get('support') or 'no support'}, {j['kind']}, support {j['stiffness']}."]
+    d = j.get("demand")
+    if d:
+        parts.append(f"V* = {d['V_kN']} kN ({d['source']}).")
+    if j.get("governing"):
+        parts.append(f"Governing check: {j['governing']}, utilisation {j['utilisation']}.")
+    if j.get("missing"):
+        parts.append("Missing: " + "; ".join(j["missing"]) + ".")
+    if j.get("note"):
+        parts.append(j["note"])
+    parts.append("joint-audit is an aid to a competent engineer; check this result.")
+    return " ".join(parts)
+
+
+def _markup(j: Mapping[str, Any], doc: Mapping[str, Any], version: str, date: str, project_guid: str | None,
+            closed: bool, snapshot: bool) -> bytes:
+    jid = j["id"]
+    status = "Closed" if closed else "Open"
+    root = etree.Element("Markup")
+    header = _sub(root, "Header")
+    file_parent = _sub(header, "Files") if version == "3.0" else header
+    attrs = {"IfcProject": project_guid} if project_guid else {}
+    if version == "3.0":
+        f = _sub(file_parent, "File", **attrs, IsExternal="true")
+    else:
+        f = _sub(file_parent, "File", **attrs, isExternal="true")
+    _sub(f, "Filename", doc["model"]["file"])
+    if date:
+        _sub(f, "Date", date)
+    topic = _sub(root, "Topic", Guid=topic_guid(jid), TopicType="Structural connection", TopicStatus=status)
+    title = f"{'Resolved: ' if closed else ''}{_TITLES.get(j['status'], 'Connection issue')} — {j.get('beam_name') or j['beam']} ({j['end']})"
+    _sub(topic, "Title", title)
+    labels = ["joint-audit", j["status"], j["kind"]] + ([j["storey"]] if j.get("storey") else [])
+    if version == "3.0":
+        lab = _sub(topic, "Labels")
+        for label in labels:
+            _sub(lab, "Label", label)
+    else:
+        for label in labels:
+            _sub(topic, "Labels", label)
+    _sub(topic, "CreationDate", date or "1970-01-01T00:00:00Z")
+    _sub(topic, "CreationAuthor", _AUTHOR)
+    _sub(topic, "Description", _describe(j))
+    vp_guid = _guid(jid, "viewpoint")
+    comment_text = ("Resolved in this run: " if closed else "") + _describe(j)
+
+    def comment(parent) -> None:
+        c = _sub(parent, "Comment", Guid=_guid(jid, "comment"))
+        _sub(c, "Date", date or "1970-01-01T00:00:00Z")
+        _sub(c, "Author", _AUTHOR)
+        _sub(c, "Comment", comment_text)
+        _sub(c, "Viewpoint", Guid=vp_guid)
+
+    def viewpoint(parent, tag: str) -> None:
+        v = _sub(parent, tag, Guid=vp_guid)
+        _sub(v, "Viewpoint", "viewpoint.bcfv")
+        if snapshot:
+            _sub(v, "Snapshot", "snapshot.png")
+
+    if version == "3.0":
+        comment(_sub(topic, "Comments"))
+        viewpoint(_sub(topic, "Viewpoints"), "ViewPoint")
+    else:
+        comment(root)
+        viewpoint(root, "Viewpoints")
+    return _xml(root)
+
+
+def _visinfo(j: Mapping[str, Any], version: str) -> bytes:
+    root = etree.Element("VisualizationInfo", Guid=_guid(j["id"], "viewpoint"))
+    comps = _sub(root, "Components")
+    sel = _sub(comps, "Selection")
+    for gid in (j["beam"], j.get("support")):
+        if gid:
+            _sub(sel, "Component", IfcGuid=gid)
+    _sub(comps, "Visibility", DefaultVisibility="true")
+    eye, direction, up = _camera(j.get("location_mm") or (0.0, 0.0, 0.0))
+    cam = _sub(root, "PerspectiveCamera")
+    _point(cam, "CameraViewPoint", eye)
+    _point(cam, "CameraDirection", direction)
+    _point(cam, "CameraUpVector", up)
+    _sub(cam, "FieldOfView", "60")
+    if version == "3.0":
+        _sub(cam, "AspectRatio", "1.5")
+    return _xml(root)
+
+
+def _version(version: str) -> bytes:
+    root = etree.Element("Version", VersionId=version)
+    if version == "2.1":
+        _sub(root, "DetailedVersion", "2.1")
+    return _xml(root)
+
+
+def _project(doc: Mapping[str, Any], version: str, project_guid: str | None, project_name: str) -> bytes:
+    pid = project_guid or doc["model"]["file"]
+    if version == "3.0":
+        root = etree.Element("ProjectInfo")
+        p = _sub(root, "Project", ProjectId=pid)
+        _sub(p, "Name", project_name or doc["model"]["file"])
+        return _xml(root)
+    root = etree.Element("ProjectExtension")
+    p = _sub(root, "Project", ProjectId=pid)
+    _sub(p, "Name", project_name or doc["model"]["file"])
+    _sub(root, "ExtensionSchema", "")
+    return _xml(root)
+
+
+def _extensions() -> bytes:
+    root = etree.Element("Extensions")
+    tt = _sub(root, "TopicTypes")
+    _sub(tt, "TopicType", "Structural connection")
+    ts = _sub(root, "TopicStatuses")
+    for s in ("Open", "Closed"):
+        _sub(ts, "TopicStatus", s)
+    tl = _sub(root, "TopicLabels")
+    for s in ("joint-audit", "fail", "needs-design", "incomplete", "column-flange", "column-web", "beam-web"):
+        _sub(tl, "TopicLabel", s)
+    return _xml(root)
+
+
+def _zip_time(date: str) -> tuple[int, int, int, int, int, int]:
+    try:
+        y, mo, d = int(date[0:4]), int(date[5:7]), int(date[8:10])
+        h, mi, s = int(date[11:13]), int(date[14:16]), int(date[17:19])
+        if y >= 1980:
+            return (y, mo, d, h, mi, s)
+    except (ValueError, IndexError):
+        pass
+    return (1980, 1, 1, 0, 0, 0)
+
+
+def bcf_archive(
+    doc: Mapping[str, Any],
+    *,
+    version: str = "2.1",
+    project_guid: str | None = None,
+    project_name: str = "",
+    snapshots: Mapping[str, bytes] | None = None,
+) -> bytes:
+    """The BCF zip (bytes) for the results document ``doc``: one topic per issue joint, plus closed
+    topics for the baseline's resolved issues. ``snapshots`` maps joint id → PNG bytes."""
+    if version not in BCF_VERSIONS:
+        raise OutputError(f"BCF version {version!r} is not supported (use {' or '.join(BCF_VERSIONS)})")
+    date = (doc.get("run") or {}).get("date") or ""
+    zt = _zip_time(date)
+    snapshots = snapshots or {}
+    entries: list[tuple[str, bytes | None]] = [("bcf.version", _version(version)),
+                                               ("project.bcfp", _project(doc, version, project_guid, project_name))]
+    if version == "3.0":
+        entries.append(("extensions.xml", _extensions()))
+    topics: list[tuple[Mapping[str, Any], bool]] = [(j, False) for j in doc["joints"] if j["status"] in ISSUE_STATUSES]
+    topics += [(j, True) for j in doc["joints"] if j.get("baseline") == "resolved"]
+    for j, closed in sorted(topics, key=lambda t: t[0]["id"]):
+        folder = topic_guid(j["id"])
+        entries.append((folder + "/", None))
+        png = snapshots.get(j["id"])
+        entries.append((f"{folder}/markup.bcf", _markup(j, doc, version, date, project_guid, closed, png is not None)))
+        entries.append((f"{folder}/viewpoint.bcfv", _visinfo(j, version)))
+        if png is not None:
+            entries.append((f"{folder}/snapshot.png", png))
+    buf = io.BytesIO()
+    with zipfile.ZipFile(buf, "w", compression=zipfile.ZIP_DEFLATED) as zf:
+        for name, data in entries:
+            info = zipfile.ZipInfo(name, date_time=zt)
+            if data is None:
+                info.external_attr = 0o40755 << 16 | 0x10
+                zf.writestr(info, b"")
+            else:
+                info.compress_type = zipfile.ZIP_DEFLATED
+                info.external_attr = 0o644 << 16
+                zf.writestr(info, data)
+    return buf.getvalue()

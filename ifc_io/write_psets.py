@@ -1,0 +1,183 @@
+"""Write the audit results into a model as property sets ``JointAudit_Start`` / ``JointAudit_End``.
+
+One property set per checked beam end, typed IFC values (DESIGN.md §5): forces as
+``IfcForceMeasure`` in the model's force unit, utilisation as ``IfcRatioMeasure``, statuses and codes
+as ``IfcLabel``, reasons and summaries as ``IfcText``, ids as ``IfcIdentifier``.
+
+* Custom property sets never take the ``Pset_`` prefix.
+* Idempotent: an existing ``JointAudit_*`` set on the beam is removed (with its properties and, when
+  it relates nothing else, its relationship) before the new one is added, so a re-run replaces rather
+  than duplicates.
+* Deterministic: the GlobalIds of the new sets and relationships derive from the beam's GlobalId and
+  the set's name, so two runs on the same input write the same entities.
+* Works on an open ``ifcopenshell.file`` (the plug-in path); writing a file is the caller's job
+  (:func:`ifc_io.write_model.write_model_copy`).
+
+An aid to a competent engineer: results must be checked; local codes and licensed practice take
+precedence.
+"""
+
+from __future__ import annotations
+
+import uuid
+from typing import Any, Iterable, Mapping
+
+import ifcopenshell
+import ifcopenshell.guid
+
+__all__ = ["PSET_BY_END", "PSET_NAMES", "write_joint_psets", "remove_joint_psets", "read_joint_psets"]
+
+PSET_BY_END = {"start": "JointAudit_Start", "end": "JointAudit_End"}
+PSET_NAMES = frozenset(PSET_BY_END.values())
+_NS = uuid.UUID("6b1f3c52-8d0e-4d59-9d7b-2f0a3c1e9a41")  # joint-audit's own namespace for derived ids
+
+
+def _guid(*parts: str) -> str:
+    return ifcopenshell.guid.compress(uuid.uuid5(_NS, "|".join(parts)).hex)
+
+
+def _rels_of(element) -> list:
+    rels = []
+    for rel in getattr(element, "IsDefinedBy", None) or ():
+        if rel.is_a("IfcRelDefinesByProperties"):
+            rels.append(rel)
+    return rels
+
+
+def remove_joint_psets(model: ifcopenshell.file, element) -> int:
+    """Remove every ``JointAudit_*`` property set from ``element``; returns how many were removed."""
+    removed = 0
+    for rel in _rels_of(element):
+        pset = rel.RelatingPropertyDefinition
+        if pset.is_a("IfcPropertySet") and pset.Name in PSET_NAMES:
+            _remove_one(model, element, rel)
+            removed += 1
+    return removed
+
+
+def _owner_history(model: ifcopenshell.file):
+    if model.schema != "IFC2X3":
+        return None
+    existing = model.by_type("IfcOwnerHistory")
+    if existing:
+        return existing[0]
+    person = model.create_entity("IfcPerson", FamilyName="joint-audit")
+    org = model.create_entity("IfcOrganization", Name="joint-audit")
+    pao = model.create_entity("IfcPersonAndOrganization", ThePerson=person, TheOrganization=org)
+    app = model.create_entity(
+        "IfcApplication", ApplicationDeveloper=org, Version="0", ApplicationFullName="joint-audit",
+        ApplicationIdentifier="joint-audit",
+    )
+    return model.create_entity(
+        "IfcOwnerHistory", OwningUser=pao, OwningApplication=app, ChangeAction="ADDED", CreationDate=0
+    )
+
+
+def _value(model: ifcopenshell.file, ifc_type: str, value: Any):
+    if model.schema == "IFC2X3" and ifc_type == "IfcDateTime":
+        ifc_type = "IfcLabel"
+    return model.create_entity(ifc_type, value)
+
+
+def _properties(joint: Mapping[str, Any], doc: Mapping[str, Any], n_per_force_unit: float) -> list[tuple[str, str, Any]]:
+    """(name, IFC type, value) for one joint's property set; ``None`` values are left out."""
+    demand = joint.get("demand") or {}
+    conn = joint.get("connection") or {}
+    reasons = "; ".join(joint.get("stiffness_reasons") or [])
+    props: list[tuple[str, str, Any]] = [
+        ("JointId", "IfcIdentifier", joint["id"]),
+        ("Status", "IfcLabel", joint["status"]),
+        ("SupportGlobalId", "IfcIdentifier", joint.get("support")),
+        ("JointKind", "IfcLabel", joint.get("kind")),
+        ("SupportStiffness", "IfcLabel", joint.get("stiffness")),
+        ("StiffnessReasons", "IfcText", reasons or None),
+        ("DesignCode", "IfcLabel", doc.get("code")),
+        ("EndShear", "IfcForceMeasure",
+         None if demand.get("V_kN") is None else demand["V_kN"] * 1e3 / n_per_force_unit),
+        ("TieForce", "IfcForceMeasure",
+         None if demand.get("N_kN") is None else demand["N_kN"] * 1e3 / n_per_force_unit),
+        ("ShearSource", "IfcLabel", demand.get("source") or None),
+        ("Connection", "IfcText", conn.get("summary")),
+        ("ConnectionSource", "IfcLabel", conn.get("source")),
+        ("Utilisation", "IfcRatioMeasure", joint.get("utilisation")),
+        ("GoverningCheck", "IfcLabel", joint.get("governing")),
+        ("Missing", "IfcText", "; ".join(joint.get("missing") or []) or None),
+        ("Baseline", "IfcLabel", joint.get("baseline")),
+        ("ToolVersion", "IfcLabel", f"{doc['tool']['name']} {doc['tool']['version']}"),
+        ("AuditDate", "IfcDateTime", (doc.get("run") or {}).get("date") or None),
+    ]
+    return [(n, t, v) for n, t, v in props if v is not None]
+
+
+def write_joint_psets(
+    model: ifcopenshell.file,
+    doc: Mapping[str, Any],
+    *,
+    n_per_force_unit: float = 1.0,
+    statuses: Iterable[str] = ("pass", "fail", "needs-design", "incomplete"),
+) -> int:
+    """Write one property set per joint of the results document ``doc`` whose status is in
+    ``statuses`` onto its beam in ``model`` (replacing earlier ``JointAudit_*`` sets of that end).
+
+    ``n_per_force_unit`` is newtons per model force unit (``Frame.n_per_force_unit``). Returns the
+    number of property sets written. Joints whose beam is not in the model are skipped.
+    """
+    wanted = set(statuses)
+    owner = _owner_history(model)
+    written = 0
+    for joint in doc["joints"]:
+        if joint["status"] not in wanted:
+            continue
+        try:
+            beam = model.by_guid(joint["beam"])
+        except RuntimeError:
+            continue
+        pset_name = PSET_BY_END[joint["end"]]
+        for rel in _rels_of(beam):
+            pset = rel.RelatingPropertyDefinition
+            if pset.is_a("IfcPropertySet") and pset.Name == pset_name:
+                _remove_one(model, beam, rel)
+        props = [
+            model.create_entity("IfcPropertySingleValue", Name=n, NominalValue=_value(model, t, v))
+            for n, t, v in _properties(joint, doc, n_per_force_unit)
+        ]
+        pset = model.create_entity(
+            "IfcPropertySet", GlobalId=_guid(beam.GlobalId, pset_name), OwnerHistory=owner, Name=pset_name,
+            Description="joint-audit result for this beam end (an aid to a competent engineer; check it)",
+            HasProperties=props,
+        )
+        model.create_entity(
+            "IfcRelDefinesByProperties", GlobalId=_guid(beam.GlobalId, pset_name, "rel"), OwnerHistory=owner,
+            RelatedObjects=[beam], RelatingPropertyDefinition=pset,
+        )
+        written += 1
+    return written
+
+
+def _remove_one(model: ifcopenshell.file, element, rel) -> None:
+    pset = rel.RelatingPropertyDefinition
+    others = [o for o in rel.RelatedObjects if o != element]
+    if others:
+        rel.RelatedObjects = others
+        return
+    props = list(pset.HasProperties or ())
+    model.remove(rel)
+    if not model.get_inverse(pset):
+        for prop in props:
+            if not [r for r in model.get_inverse(prop) if r != pset]:
+                model.remove(prop)
+        model.remove(pset)
+
+
+def read_joint_psets(model: ifcopenshell.file, element) -> dict[str, dict[str, Any]]:
+    """The ``JointAudit_*`` sets on ``element`` as ``{pset name: {property: value}}`` (for tests and
+    for tools reading results back)."""
+    out: dict[str, dict[str, Any]] = {}
+    for rel in _rels_of(element):
+        pset = rel.RelatingPropertyDefinition
+        if pset.is_a("IfcPropertySet") and pset.Name in PSET_NAMES:
+            out[pset.Name] = {
+                p.Name: (p.NominalValue.wrappedValue if p.NominalValue is not None else None)
+                for p in pset.HasProperties
+            }
+    return out

@@ -1,0 +1,45 @@
+"""The HTML issue list: self-contained, cautions on top, every issue listed, model text escaped."""
+
+from __future__ import annotations
+
+import re
+
+from helpers_results import doc, members, result
+from engine.report_html import render_report
+
+B, C, B2 = "2O2Fr$t4X7Zf8NOew3FLOH", "1kTvXnbbzCWw8lcMd1dR4o", "0uA7yfWrz4wBs1xbFHhyKq"
+
+
+def test_markup_in_model_names_is_escaped():
+    evil = '<script>alert("x")</script><img src=x onerror=alert(1)>'
+    mem = members(B, C, beam_name=evil, storey='L1"><b>')
+    html = render_report(doc([result(B, C, "fail")], mem))
+    assert "<script>alert" not in html
+    assert "<img src=x" not in html
+    assert "&lt;script&gt;alert(&quot;x&quot;)&lt;/script&gt;" in html or "&lt;script&gt;alert(\"x\")&lt;/script&gt;" in html
+    assert 'data-storey="L1&quot;&gt;&lt;b&gt;"' in html
+    # the only scripts are our own inline one
+    assert html.count("<script>") == 1
+
+
+def test_page_is_self_contained_with_cautions_first():
+    html = render_report(doc([result(B, C, "fail")], members(B, C)))
+    assert not re.search(r'(src|href)="(https?:)?//', html)
+    assert "<link" not in html
+    assert html.index("CAUTION") < html.index('class="issue"')
+    assert "aid to a competent structural engineer" in html
+
+
+def test_every_issue_is_listed_and_passing_joints_are_not():
+    mem = {**members(B, C), **members(B2, C, "B2")}
+    d = doc([result(B, C, "fail"), result(B2, C, "incomplete", end="end"), result(B, C, "pass", end="end")], mem)
+    html = render_report(d)
+    assert html.count('<article class="issue"') == 2
+    assert 'data-status="fail"' in html and 'data-status="incomplete"' in html
+    assert "bolt shear" in html and "AS 4100 9.3.2.1" in html
+    assert "column flange, column continuous → stiff" in html
+
+
+def test_no_issue_page_says_so():
+    html = render_report(doc([result(B, C, "pass")], members(B, C)))
+    assert "No issues: every checked joint passes." in html
