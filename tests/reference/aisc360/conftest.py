@@ -1,0 +1,11 @@
+"""aisc360 reference tests: make the shared worked-example inputs (aisc360_example.py beside this
+file) importable under pytest's importlib import mode."""
+
+from __future__ import annotations
+
+import sys
+from pathlib import Path
+
+_HERE = str(Path(__file__).resolve().parent)
+if _HERE not in sys.path:
+    sys.path.insert(0, _HERE)
