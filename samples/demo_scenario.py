@@ -618,7 +618,9 @@ def _model_shears() -> dict[str, tuple[float, float]]:
 # key: (beam tag, end) -> layout parameters of the fin plate modelled there
 _STD = dict(thickness=10.0, bolt_size="M20", bolt_diameter=20.0, rows=3, lines=1, pitch=70.0,
             gauge=0.0, plate_end_edge=35.0, plate_side_edge=45.0, a=60.0, top_offset=50.0,
-            weld_leg=6.0, weld_electrode="E48XX", intended="adequate")
+            weld_leg=8.0, weld_electrode="E48XX", intended="adequate")
+# 8 mm fillet welds both sides for 10 mm Grade 250 plates, so the welds are stronger than the plate
+# (common practice); plates at least 0.6 x the beam depth deep (common practice)
 
 
 def _fin_plate_layouts() -> dict[tuple[str, str], dict]:
@@ -626,27 +628,26 @@ def _fin_plate_layouts() -> dict[tuple[str, str], dict]:
     std_sec = dict(_STD, top_offset=20.0)
     fp = {
         ("L1-G-B12", "start"): dict(
-            _STD, thickness=8.0, bolt_size="M16", bolt_diameter=16.0, rows=2, pitch=60.0,
+            _STD, thickness=8.0, bolt_size="M16", bolt_diameter=16.0, rows=2, pitch=60.0, weld_leg=6.0,
             plate_end_edge=30.0, plate_side_edge=40.0, top_offset=60.0, intended="too-weak",
             why="2 x M16 on an 8 mm plate at the end of a long-span girder with 180 kN end shear"),
         ("L1-G-B12", "end"): dict(
-            _STD, thickness=12.0, rows=4, weld_leg=8.0,
-            why="4 x M20 8.8/S, 12 mm plate, for 180 kN"),
+            _STD, rows=4, why="4 x M20 8.8/S, 10 mm plate, for 180 kN"),
         ("L1-S-AB", "start"): dict(std_sec, why="3 x M20 8.8/S, 10 mm plate, for 70 kN"),
         ("L1-S-AB", "end"): dict(std_sec, why="3 x M20 8.8/S, 10 mm plate, for 70 kN"),
         ("L1-S-BC", "start"): dict(std_sec, why="3 x M20 8.8/S, 10 mm plate, for 70 kN"),
-        ("L1-B-2AB", "start"): dict(_STD, why="3 x M20 8.8/S, 10 mm plate, for 90 kN"),
-        ("L1-B-2BC", "start"): dict(_STD, why="3 x M20 8.8/S, 10 mm plate, for 90 kN"),
-        ("L1-W-D1", "start"): dict(_STD, why="3 x M20 8.8/S, 10 mm plate, for 40 kN"),
+        ("L1-B-2AB", "start"): dict(_STD, rows=4, why="4 x M20 8.8/S, 10 mm plate, for 90 kN"),
+        ("L1-B-2BC", "start"): dict(_STD, rows=4, why="4 x M20 8.8/S, 10 mm plate, for 90 kN"),
+        ("L1-W-D1", "start"): dict(_STD, plate_end_edge=40.0, why="3 x M20 8.8/S, 10 mm plate, for 40 kN"),
         ("L2-G-C12", "end"): dict(
-            _STD, thickness=6.0, intended="too-weak",
+            _STD, thickness=6.0, weld_leg=6.0, intended="too-weak",
             why="6 mm plate and 3 x M20 for 220 kN: plate shear and bolt group overloaded"),
         ("L2-B-1CD", "end"): dict(
             _STD, plate_end_edge=22.0, plate_side_edge=22.0, a=COLUMN_CLEARANCE + 22.0,
             intended="too-weak",
             why="edge distances of 22 mm for M20 bolts on the plate and the beam web: below the "
                 "minimum edge distance (strength is otherwise ample for 50 kN)"),
-        ("L2-G-D12", "start"): dict(_STD, why="3 x M20 8.8/S, 10 mm plate, for 90 kN"),
+        ("L2-G-D12", "start"): dict(_STD, rows=4, why="4 x M20 8.8/S, 10 mm plate, for 90 kN"),
         ("L2-S-BC", "start"): dict(_STD, why="3 x M20 8.8/S, 10 mm plate, for 60 kN (set-down beam, no cope)"),
     }
     for i, k in enumerate(fp, 1):
@@ -681,11 +682,11 @@ def _schedule(by_tag: dict) -> list[ScheduleRow]:
     def row(match, value, end, t, rows, a, gap, top_edge, pe=35.0, ps=45.0):
         depth = 2 * pe + (rows - 1) * 70.0
         return ScheduleRow(match, value, end, t, depth, a + ps, "M20", BOLT_GRADE[0], rows, 1, 70.0,
-                           0.0, pe, ps, a - gap, top_edge, a, 6.0, "E48XX")
+                           0.0, pe, ps, a - gap, top_edge, a, 8.0, "E48XX")
 
     return [
         row("tag", "L2-G-B12", "both", 10.0, 4, 60.0, COLUMN_CLEARANCE, 85.0),
-        row("globalid", "L1-B-1AB", "start", 10.0, 3, 60.0, COLUMN_CLEARANCE, 85.0),
+        row("globalid", "L1-B-1AB", "start", 10.0, 4, 60.0, COLUMN_CLEARANCE, 85.0),
         row("section", "310UB40.4", "both", 10.0, 3, 60.0, GIRDER_CLEARANCE, 55.0),
     ]
 
