@@ -181,6 +181,20 @@ class AISC360(RuleSet):
         return {"name": lc["name"], "dead": float(lc["dead"]), "live": float(lc["live"]),
                 "dead_only": float(lc["dead_only"]), "source": lc["source"]}
 
+    def web_shear_capacity(self, member: Member) -> float | None:
+        """φv Vn = φv 0.6 Fy d tw Cv1 of a rolled I web (AISC 360-16 G2.1), in N; ``None`` when the
+        section or steel is unknown or not in the Manual's tables."""
+        s = member.section
+        if s.kind not in ("I", "channel") or None in (s.depth, s.web_thickness) or member.steel is None:
+            return None
+        try:
+            Fy = data.steel_strengths(member.steel.grade)[0]
+        except RuleSetError:
+            Fy = member.steel.fy
+        h = s.clear_web_depth or (s.depth - 2.0 * (s.flange_thickness or 0.0))
+        c = ck.web_shear_G2("beam web shear", 0.0, s.depth, s.web_thickness, h, Fy, data.ksi(data.factors()["material"]["E"]))
+        return None if c.incomplete else c.capacity
+
     # -- the fin-plate checks ------------------------------------------------------------------
 
     def check_fin_plate(

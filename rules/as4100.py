@@ -197,6 +197,18 @@ class AS4100(RuleSet):
         }
 
     # ------------------------------------------------------------------ the fin-plate audit
+    def web_shear_capacity(self, member: Member) -> float | None:
+        """φVv = φ 0.6 fy Aw with Aw = d tw (AS 4100 cl. 5.11.4, stocky web; φ = 0.9 Table 3.4) in N,
+        fy of the web thickness (AS/NZS 3679.1). ``None`` when section or steel is unknown."""
+        s = member.section
+        if s.kind not in ("I", "channel") or s.depth is None or s.web_thickness is None or member.steel is None:
+            return None
+        got = D.steel_strength(member.steel.grade, s.web_thickness, "section")
+        fy = got[0] if got else member.steel.fy
+        if not fy > 0:
+            return None
+        return D.factors()["phi"]["member"] * C.Vw_shear(fy, s.depth * s.web_thickness)
+
     def check_fin_plate(
         self,
         joint: Joint,

@@ -102,6 +102,13 @@ class RuleSet(ABC):
         the design load is ``max(dead*G + live*Q, dead_only*G)``."""
 
 
+    def web_shear_capacity(self, member: Member) -> float | None:
+        """Design shear capacity (N) of the member's web, for the ``capacity-fraction`` demand
+        source; ``None`` when the section or steel is not known. Optional: the default says the
+        rule set does not provide it."""
+        return None
+
+
 CONTRACT_METHODS: tuple[str, ...] = (
     "bolt_shear_capacity",
     "fillet_weld_capacity",

@@ -190,6 +190,17 @@ class EN1993(RuleSet):
 
     # ---------------------------------------------------------------------------- the checks
 
+    def web_shear_capacity(self, member: Member) -> float | None:
+        """V_pl,Rd = A_v f_y / (√3 γ_M0) of the member's web (EN 1993-1-1 6.2.6(2), A_v per
+        6.2.6(3)(a)) in N, f_y for the web thickness (EN 1993-1-1 Table 3.1). ``None`` when the
+        section or steel is unknown."""
+        s = member.section
+        Av = _shear_area(s) if s.kind in ("I", "channel") else None
+        got = data.steel_strength(member.steel, s.web_thickness) if Av is not None else None
+        if Av is None or got is None:
+            return None
+        return ck.V_pl_Rd(Av, got[0], data.factors()["gamma_M0"])
+
     def check_fin_plate(self, joint: Joint, demand: Demand, plate: FinPlate, beam: Member,
                         support: Member | None, policy: str = "conservative") -> list[Check]:
         """Every check of the fin plate at ``joint`` (see the module docstring and check_list)."""
@@ -230,6 +241,19 @@ def _grade_steel(grade: str):
     from engine.model import Steel
 
     return Steel(grade=grade, fy=0.0, fu=0.0, source="rule set")
+
+
+def _shear_area(sec) -> float | None:
+    """A_v of a rolled I or channel, EN 1993-1-1 6.2.6(3)(a): A − 2 b t_f + (t_w + 2r) t_f but not
+    less than η h_w t_w (η = 1.0); h_w t_w when the area is unknown (conservative). mm²."""
+    tw, h = sec.web_thickness, sec.depth
+    if tw is None or h is None:
+        return None
+    hw = h - 2.0 * (sec.flange_thickness or 0.0)
+    if sec.area is not None and sec.width is not None and sec.flange_thickness is not None:
+        tf, r = sec.flange_thickness, sec.root_radius or 0.0
+        return max(sec.area - 2.0 * sec.width * tf + (tw + 2.0 * r) * tf, hw * tw)
+    return hw * tw
 
 
 class _Context:
@@ -425,13 +449,9 @@ class _Context:
             r = s.root_radius or 0.0
             dc = max(self.cope_top, self.cope_bot)
             return tw * (h - dc - tf) + (tw + 2.0 * r) * tf / 2.0, "single-notched: A_v = A_Tee − b t_f + (t_w + 2r) t_f/2"
-        hw = h - 2.0 * (s.flange_thickness or 0.0)
         if s.area is not None and s.width is not None and s.flange_thickness is not None:
-            tf = s.flange_thickness
-            r = s.root_radius or 0.0
-            Av = s.area - 2.0 * s.width * tf + (tw + 2.0 * r) * tf
-            return max(Av, hw * tw), "A_v = A − 2 b t_f + (t_w + 2r) t_f ≥ η h_w t_w (η = 1.0)"
-        return hw * tw, "A_v = h_w t_w (section area unknown; conservative)"
+            return _shear_area(s), "A_v = A − 2 b t_f + (t_w + 2r) t_f ≥ η h_w t_w (η = 1.0)"
+        return _shear_area(s), "A_v = h_w t_w (section area unknown; conservative)"
 
     def web_shear_resistances(self) -> tuple[float, float] | None:
         Av, _ = self.web_shear_area()
