@@ -35,6 +35,7 @@ class AuditOutcome:
     finding: Any
     members: Mapping[str, Member]
     warnings: tuple[DataWarning, ...]
+    frame: Frame
 
 
 def _quiet(stage: str, done: int, total: int) -> None:
@@ -76,6 +77,23 @@ def choose_connections(
     return choices, warnings
 
 
+def _propose(finding, demands, choices, members, ruleset, policy, space, progress):
+    from engine.design import propose_fin_plate
+
+    todo = [j for j in finding.joints if j.id in choices and choices[j.id].plate is None
+            and not choices[j.id].missing and demands.get(j.id) is not None]
+    out = dict(choices)
+    for i, j in enumerate(todo):
+        prop = propose_fin_plate(j, demands[j.id], members[j.beam], members.get(j.support) if j.support else None,
+                                 ruleset, policy, space)
+        if prop.plate is not None:
+            out[j.id] = ConnectionChoice(prop.plate, "proposed", note=f"proposed by --design: {prop.reason}; not in the model")
+        else:
+            out[j.id] = ConnectionChoice(None, "", note=f"--design found no fin plate: {prop.reason}")
+        progress("design", i + 1, len(todo))
+    return out
+
+
 def run_audit(
     frame: Frame,
     config: Mapping[str, Any],
@@ -87,8 +105,13 @@ def run_audit(
     baseline: Mapping[str, Mapping[str, Any]] | None = None,
     run_date: str = "",
     progress: Progress = _quiet,
+    design_space=None,
 ) -> AuditOutcome:
-    """Run the audit stages on ``frame`` and return the results (nothing is written)."""
+    """Run the audit stages on ``frame`` and return the results (nothing is written).
+
+    With ``design_space`` (an :class:`engine.design.DesignSpace`) every shear joint that has an end
+    shear but no modelled or scheduled connection gets the lightest passing proposal, or stays
+    ``needs-design`` with the reason none was found."""
     from engine.demand import resolve_demands
     from engine.joints import find_joints
     from engine.results import baseline_marks, results_document
@@ -115,6 +138,8 @@ def run_audit(
 
     choices, conn_warnings = choose_connections(finding, frame, members, connection_schedule, steel_lookup, config)
     warnings += conn_warnings
+    if design_space is not None:
+        choices = _propose(finding, demands, choices, members, ruleset, policy, design_space, progress)
 
     results: list[JointResult] = []
     total = len(finding.joints)
@@ -132,4 +157,4 @@ def run_audit(
         results, frame, members, code=config["code"], code_title=getattr(ruleset, "title", ""),
         baseline=marks, removed=removed, run_date=run_date, config=config, warnings=warnings,
     )
-    return AuditOutcome(tuple(results), doc, finding, members, tuple(warnings))
+    return AuditOutcome(tuple(results), doc, finding, members, tuple(warnings), frame)

@@ -30,6 +30,10 @@ _DESCRIPTION = (
 )
 
 
+class UsageError(JointAuditError):
+    """A command line that cannot be carried out as given."""
+
+
 class _Parser(argparse.ArgumentParser):
     """An argument parser whose usage errors are one line on stderr and exit status 2."""
 
@@ -60,9 +64,29 @@ def build_parser() -> argparse.ArgumentParser:
     p.add_argument("--config", metavar="FILE.toml", help="configuration (tolerances, support policy, default grade)")
 
     p = sub.add_parser(
+        "audit",
+        help="audit every beam-to-support joint of a model and write the results (IFC copy, HTML, BCF, JSON, CSV)",
+        description="Find every joint, its support stiffness and end shear, check its connection under a design "
+        "code, and write: a copy of the model with JointAudit_* property sets, an HTML issue list, a BCF file, "
+        "results.json and a CSV connection schedule. The input model is never modified.\n\nCAUTION: " + CAUTION,
+        formatter_class=argparse.RawDescriptionHelpFormatter,
+    )
+    p.add_argument("model", metavar="MODEL.ifc", nargs="?", help="the IFC file to audit (IFC2X3, IFC4 or IFC4X3)")
+    p.add_argument("--code", help="design code rule set (as4100, en1993, aisc360 or any installed); default from config")
+    p.add_argument("--config", metavar="FILE.toml", help="configuration file (see --show-config for every key)")
+    p.add_argument("--schedule", metavar="FILE", action="append", default=[],
+                   help="a connection schedule or a demand schedule (CSV or TOML; the kind is told from its columns); may be given twice")
+    p.add_argument("--design", action="store_true",
+                   help="propose the lightest passing fin plate for every joint with no connection")
+    p.add_argument("--baseline", metavar="OLD/results.json", help="mark each joint new / open / resolved against an earlier run")
+    p.add_argument("--out", metavar="DIR", default="joint-audit-out", help="output folder (default: %(default)s)")
+    p.add_argument("--bcf-version", choices=("2.1", "3.0"), default="2.1", help="BCF version to write (default: %(default)s)")
+    p.add_argument("--show-config", action="store_true", help="print the effective configuration as TOML and stop")
+
+    p = sub.add_parser(
         "demo",
-        help="build the bundled demo model (an invented project) and inspect its joints",
-        description="Build the demo model of our invented project into a folder and report on it.\n\nCAUTION: " + CAUTION,
+        help="build the bundled demo model (an invented project) and audit it",
+        description="Build the demo model of our invented project into a folder and audit it.\n\nCAUTION: " + CAUTION,
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
     p.add_argument("--out", metavar="DIR", default="joint-audit-demo", help="output folder (default: %(default)s)")
@@ -161,23 +185,117 @@ def _prepare_out_dir(path: str) -> Path:
     return out
 
 
+class _ProgressBar:
+    """A one-line progress bar on a terminal (stderr); silent in pipes and CI."""
+
+    def __init__(self) -> None:
+        self.active = sys.stderr.isatty() and not os.environ.get("CI")
+        self.last = ""
+
+    def __call__(self, stage: str, done: int, total: int) -> None:
+        if not self.active:
+            return
+        frac = 1.0 if total <= 0 else min(1.0, done / total)
+        bar = "#" * int(frac * 30)
+        line = f"\r{stage:8s} [{bar:<30s}] {done}/{total}"
+        if line != self.last:
+            sys.stderr.write(line)
+            sys.stderr.flush()
+            self.last = line
+
+    def done(self) -> None:
+        if self.active and self.last:
+            sys.stderr.write("\r" + " " * len(self.last) + "\r")
+            sys.stderr.flush()
+
+
+def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str | None, schedules: list[str],
+               baseline_path: str | None, bcf_version: str, design: bool = False) -> int:
+    import ifc_io
+    from ifc_io.library import audit_model
+    from ifc_io.write_bcf import bcf_archive
+    from ifc_io.write_psets import write_joint_psets
+
+    from engine.atomic import refuse_input_overwrite, write_atomic, write_atomic_with
+    from engine.raster import to_png
+    from engine.report_drawings import elevation_for, issue_drawings
+    from engine.report_html import render_report
+    from engine.results import read_baseline, schedule_csv
+
+    # everything that can fail on bad input happens before anything is written
+    model = ifc_io.open_model(model_path)
+    baseline = read_baseline(baseline_path) if baseline_path else None
+    bar = _ProgressBar()
+    outcome = audit_model(model, code=code, config_file=config_file, schedules=schedules, baseline=baseline,
+                          file_label=Path(model_path).name, progress=bar, design=design)
+    bar.done()
+    doc = outcome.doc
+    drawings, symbols = issue_drawings(outcome.results, outcome.members)
+    html = render_report(doc, drawings, symbols)
+    snapshots = {r.joint.id: to_png(elevation_for(r, outcome.members[r.joint.beam]))
+                 for r in outcome.results if r.joint.id in drawings}
+    project = model.by_type("IfcProject")
+    bcf = bcf_archive(doc, version=bcf_version, project_guid=project[0].GlobalId if project else None,
+                      project_name=(project[0].Name or "") if project else "", snapshots=snapshots)
+    write_joint_psets(model, doc, n_per_force_unit=outcome.frame.n_per_force_unit)
+
+    out = _prepare_out_dir(out_dir)
+    stem = Path(model_path).stem
+    targets = {
+        "ifc": out / f"{stem}.audited.ifc",
+        "results": out / "results.json",
+        "schedule": out / "connections.csv",
+        "report": out / "issues.html",
+        "bcf": out / "issues.bcf",
+    }
+    for t in targets.values():
+        refuse_input_overwrite(t, [model_path] + ([baseline_path] if baseline_path else []) + list(schedules))
+    write_atomic(targets["results"], json.dumps(doc, indent=2, ensure_ascii=False) + "\n")
+    write_atomic(targets["schedule"], schedule_csv(doc))
+    write_atomic(targets["report"], html)
+    write_atomic(targets["bcf"], bcf)
+    write_atomic_with(targets["ifc"], lambda tmp: model.write(tmp))
+
+    s = doc["summary"]
+    sys.stdout.write(
+        f"CAUTION: {CAUTION}\n\n{doc['model']['file']} audited to {doc['code_title'] or doc['code']}: "
+        f"{s['joints']} joints — {s['pass']} pass, {s['fail']} fail, {s['needs-design']} need design, "
+        f"{s['incomplete']} incomplete, {s['not-checked']} not checked\n"
+    )
+    for label, t in targets.items():
+        sys.stdout.write(f"  {label:8s} {t}\n")
+    if outcome.warnings:
+        sys.stdout.write(f"  {len(outcome.warnings)} warnings (listed in results.json)\n")
+    return 1 if s["fail"] or s["needs-design"] else 0
+
+
+def _cmd_audit(args: argparse.Namespace) -> int:
+    from engine.config import dumps_toml, load_config, merge_config
+
+    if args.show_config:
+        cfg = load_config(args.config)
+        if args.code:
+            cfg = merge_config(cfg, {"code": args.code})
+        sys.stdout.write(dumps_toml(cfg))
+        return 0
+    if not args.model:
+        raise UsageError("audit needs MODEL.ifc (or --show-config)")
+    return _run_audit(args.model, args.out, args.config, args.code, args.schedule, args.baseline, args.bcf_version,
+                      args.design)
+
+
 def _cmd_demo(args: argparse.Namespace) -> int:
     from samples.generate_demo import build_demo
 
     out = _prepare_out_dir(args.out)
     paths = build_demo(out)
-    sys.stdout.write(f"CAUTION: {CAUTION}\n\nDemo model of our invented project written to {out}:\n")
+    sys.stdout.write(f"Demo model of our invented project written to {out}:\n")
     for label, p in paths.items():
         sys.stdout.write(f"  {label:8s} {p}\n")
-    ifc = paths.get("ifc4")
-    if ifc is not None:
-        ns = argparse.Namespace(model=str(ifc), joints=True, json=False, config=None)
-        cfg = paths.get("config")
-        if cfg is not None:
-            ns.config = str(cfg)
-        sys.stdout.write("\n")
-        return _cmd_inspect(ns)
-    return 0
+    sys.stdout.write("\n")
+    schedules = [str(paths["schedule"])] if "schedule" in paths else []
+    return _run_audit(str(paths["ifc4"]), str(out / "audit"), str(paths["config"]) if "config" in paths else None,
+                      None, schedules, None, "2.1")
 
 
 def _cmd_rules(args: argparse.Namespace) -> int:
@@ -210,7 +328,7 @@ def _cmd_rules(args: argparse.Namespace) -> int:
     return 0
 
 
-_COMMANDS = {"inspect": _cmd_inspect, "demo": _cmd_demo, "rules": _cmd_rules}
+_COMMANDS = {"inspect": _cmd_inspect, "audit": _cmd_audit, "demo": _cmd_demo, "rules": _cmd_rules}
 
 
 def main(argv: Sequence[str] | None = None) -> int:
