@@ -26,6 +26,7 @@ DEFAULTS: dict[str, Any] = {
         "start_shear": "",
         "end_shear": "",
         "area_loads": [],
+        "tie_kN": 0.0,
     },
     "materials": {"default_grade": "", "plate_grade": ""},
     "connections": {"weld_leg_mm": 6.0, "weld_electrode": "", "both_sides": True},

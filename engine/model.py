@@ -311,12 +311,15 @@ class Demand:
 
     ``source`` is ``"model"``, ``"schedule"``, ``"tributary"`` or ``"capacity-fraction"``;
     ``combination`` names the load combination (e.g. ``"1.2G + 1.5Q (AS/NZS 1170.0 4.2.2)"``).
+    ``detail`` says where the numbers came from in words a reviewer can follow (the property, the
+    schedule file and line, the take-down breakdown), ``""`` when nothing more is known.
     """
 
     V: float
     N: float = 0.0
     source: str = ""
     combination: str = ""
+    detail: str = ""
 
 
 @dataclass(frozen=True)
