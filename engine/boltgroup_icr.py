@@ -5,10 +5,7 @@ The public names are re-exported by :mod:`engine.boltgroup`; import them from th
 Method
 ------
 Crawford & Kulak (1971), as used for the AISC Steel Construction Manual, Part 7, Tables 7-6 to
-7-14 ("Coefficients C for Eccentrically Loaded Bolt Groups"; in the 8th edition, 1980, the table
-reprinted as Table 13.1 of Kulak, Fisher & Struik, *Guide to Design Criteria for Bolted and Riveted
-Joints*, 2nd ed., 1987), and by Brandt (1982), "Rapid determination of ultimate strength of
-eccentrically loaded bolt groups", AISC Engineering Journal, 2nd quarter:
+7-14 ("Coefficients C for Eccentrically Loaded Bolt Groups"):
 
 * At the ultimate load the connected part rotates about an instantaneous centre O. Each bolt
   deforms perpendicular to the line from O to it, by an amount proportional to its distance r_i:
@@ -25,7 +22,8 @@ in inches, 0.34 in at the farthest bolt). The AISC tables for s = 3 in and s = 6
 of the same function.
 
 Normalisation of C. With ``normalisation="ultimate"`` (default) C = P_u / R_ult, the definition of
-the published tables (checked in ``tests/reference/boltgroup``): the farthest bolt carries
+the AISC tables as the Manual describes them (the published values themselves are not yet in the
+tests: ``tests/reference/boltgroup`` checks C against an independent solution): the farthest bolt carries
 R(0.34 in) = 0.9815 R_ult, so C tends to 0.9815 n as e → 0. A concentrically loaded group
 (e = 0, to 1e-9 of the group's radius of gyration) gets C = n exactly: every bolt carries its full
 strength, as the AISC rule R_n = n r_n for a concentric group. So C has a 1.85 % step at e = 0,
@@ -160,7 +158,7 @@ class ICRResult:
     converged : bool or ndarray (G,)
     iterations : int or ndarray (G,)
     normalisation : str
-        ``"ultimate"`` (C = P_u/R_ult, the published tables) or ``"delta-max"`` (C = P_u/R(Δmax)).
+        ``"ultimate"`` (C = P_u/R_ult, as the AISC tables define it) or ``"delta-max"`` (C = P_u/R(Δmax)).
     """
 
     C: np.ndarray
@@ -420,7 +418,7 @@ def icr_solve_batch(
     mask : array_like of bool (G, n), optional
         ``True`` for real bolts when ``xy_batch`` is padded.
     normalisation : {"ultimate", "delta-max"}
-        See the module notes: ``"ultimate"`` is the published tables' C = P_u / R_ult.
+        See the module notes: ``"ultimate"`` is the AISC tables' definition C = P_u / R_ult.
 
     Returns
     -------
@@ -608,13 +606,13 @@ def icr_coefficient(
 
     Examples
     --------
-    Six bolts in one vertical line at 3 in. pitch, load 6 in. from the line (AISC 8th ed.
-    table, as reprinted in Kulak, Fisher & Struik, Table 13.1: 3.55):
+    Six bolts in one vertical line at 3 in. pitch: concentric load, and a load 6 in. from the line
+    (C between the elastic coefficient and n):
 
     >>> import numpy as np
     >>> xy = np.column_stack([np.zeros(6), 76.2 * np.arange(6)])
-    >>> round(icr_coefficient(xy, 6 * 25.4), 2)
-    3.55
+    >>> 2.5 < icr_coefficient(xy, 6 * 25.4) < 6.0
+    True
     >>> icr_coefficient(xy, 0.0)
     6.0
     """

@@ -1,8 +1,8 @@
 """Bolt-group mechanics (engine.boltgroup): elastic method and instantaneous centre of rotation.
 
 Checks against closed forms computed here by hand (plain Python), equilibrium, symmetry and the
-solver's robustness. The checks against published tables of C are in
-tests/reference/boltgroup/test_icr_published_tables.py.
+solver's robustness. The checks of C against an independent ICR solution are in
+tests/reference/boltgroup/test_icr_independent_solution.py.
 """
 
 from __future__ import annotations
