@@ -557,10 +557,13 @@ def _joint(sc: Scenario, by_tag: dict, m: MemberSpec, end: str, e: _End, into,
                 "girder web loaded from one side only: the girder can twist")
         drop = g.start[2] - m.start[2]
         need = g.section.tf + g.section.r - drop
-        if need > 0:
+        # bottom flange of the secondary below the top of the girder's bottom flange (+ root)
+        need_bottom = g.section.tf + g.section.r - (g.section.d - drop - m.section.d)
+        if need > 0 or need_bottom > 0:
             gap_det = e.gap if convention == "detailed" else GIRDER_CLEARANCE
             length = (g.section.bf - g.section.tw) / 2.0 - gap_det + COPE_CLEARANCE
-            cope = {"where": "top", "depth": _ceil5(need), "length": _ceil5(length)}
+            where, depth = ("top", need) if need > 0 else ("bottom", need_bottom)
+            cope = {"where": where, "depth": _ceil5(depth), "length": _ceil5(length)}
     elif e.kind == "wall":
         stiff, note = "stiff", "beam bears on top of a concrete wall"
     else:

@@ -70,7 +70,7 @@ def test_gaps_continuity_and_back_to_back_partners_match_the_truth(truth, name):
 
 
 @pytest.mark.parametrize("name", MODELS)
-def test_copes_match_the_truth_where_it_has_one(truth, name):
+def test_copes_match_the_truth(truth, name):
     f = {(j.beam, j.end): j for j in _finding(name).joints}
     extra = []
     for t in truth["joints"]:
@@ -80,9 +80,10 @@ def test_copes_match_the_truth_where_it_has_one(truth, name):
             assert got == [(t["cope"]["where"], t["cope"]["depth"], t["cope"]["length"])], t["beam_tag"]
         elif got:
             extra.append((t["beam_tag"], got))
-    # one set-down secondary (310UB 100 mm below a 410UB) has its soffit 1 mm below the girder's: its
-    # bottom flange meets the girder's bottom flange, so a bottom cope is needed (tf + r = 22.3 → 25)
-    assert extra == [("L2-S-AB", [("bottom", 25.0, 85.0)])]
+    # every cope found is in the truth, including the set-down 310UB 100 mm below a 410UB whose soffit
+    # is 1 mm below the girder's: a bottom cope (tf + r = 22.3 + 1 → 25 mm) is needed there
+    assert extra == []
+    assert any(t["cope"] and t["cope"]["where"] == "bottom" for t in truth["joints"])
 
 
 @pytest.mark.parametrize("name", MODELS)
