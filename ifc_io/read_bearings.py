@@ -1,0 +1,72 @@
+"""Walls, slabs and footings → :class:`engine.model.Bearing` (world axis-aligned boxes, mm).
+
+The box comes from the body without tessellation: every extruded area solid's profile box swept
+along its extrusion (through boolean clippings, whose first operand is taken, and mapped items),
+else the vertices of breps and face sets, else the ``Box`` representation; then the object
+placement. An element with none of these is skipped with a warning.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+from engine.model import Bearing
+from ifc_io.read_axes import read_geometry, solid_corners
+from ifc_io.read_geometry import apply
+
+__all__ = ["BEARING_CLASSES", "read_bearings", "world_box"]
+
+BEARING_CLASSES: tuple[str, ...] = ("IfcWall", "IfcSlab", "IfcFooting")
+
+
+def world_box(el, ctx) -> tuple[np.ndarray, np.ndarray] | None:
+    """World (model units) min and max corner of an element's body, or ``None``."""
+    geom = read_geometry(el, ctx.index, ctx.resolver)
+    pts = []
+    for s in geom.solids:
+        bbox = ctx.bbox(s.profile)
+        if bbox is not None:
+            pts.extend(solid_corners(s, bbox))
+    if not pts and geom.vertices is not None:
+        pts.extend(geom.vertices)
+    if not pts and geom.directrix is not None:
+        pts.extend(geom.directrix)
+    if not pts:
+        return None
+    world = np.asarray([apply(geom.m_obj, p) for p in pts], dtype=float)
+    return world.min(axis=0), world.max(axis=0)
+
+
+def read_bearings(ctx) -> list[Bearing]:
+    out: list[Bearing] = []
+    seen: set[int] = set()
+    mm = ctx.mm
+    for cls in BEARING_CLASSES:
+        try:
+            elements = ctx.model.by_type(cls)
+        except RuntimeError:
+            continue
+        for el in elements:
+            if el.id() in seen:
+                continue
+            seen.add(el.id())
+            gid = el.GlobalId
+            try:
+                box = world_box(el, ctx)
+            except Exception as exc:  # one bad element never stops the read
+                ctx.warn(f"{el.is_a()} body could not be read ({type(exc).__name__}: {exc}); "
+                         f"not used as a bearing", gid)
+                continue
+            if box is None:
+                ctx.warn(f"{el.is_a()} has no swept solid, brep or box to bound it; not used as a bearing", gid)
+                continue
+            lo, hi = box
+            out.append(Bearing(
+                global_id=gid,
+                ifc_class=el.is_a(),
+                name=el.Name or "",
+                bbox_min=tuple(float(x) * mm for x in lo),
+                bbox_max=tuple(float(x) * mm for x in hi),
+                storey=ctx.index.storey_name(el),
+            ))
+    return out

@@ -1,0 +1,264 @@
+"""IfcBeam, IfcColumn and IfcMember → :class:`engine.model.Member` (mm, world).
+
+Per element: the axis and web direction (:mod:`ifc_io.read_axes`), the section (parametric profile
+of an IFC4 material profile set usage or of the body; else the profile's name, then the type's
+name, ObjectType and Name, through :func:`rules.catalog.lookup_section`; else ``unknown`` with a
+warning), the steel grade (:class:`ifc_io.read_materials.SteelResolver`), storey, name, tag,
+predefined type, cardinal point and requested properties. A problem with one element becomes a
+warning carrying its GlobalId; an element whose axis cannot be found, or is of zero length, is
+skipped with a warning.
+
+Roles (:func:`member_role`):
+
+* IfcBeam (and subtypes) → ``beam``; IfcColumn → ``column``, whatever their orientation.
+* IfcMember by predefined type (the occurrence's, else its type's): BRACE, STRUT, TIEBAR and the
+  cable types → ``brace``; POST, STUD → ``column``; PURLIN, RAFTER, STRINGER, CHORD, COLLAR,
+  JOIST → ``beam``.
+* Any other IfcMember by its axis: within 10° of horizontal → ``beam``; within 10° of vertical →
+  ``other`` (a vertical member not declared a post, e.g. a hanger or mullion: not given the column
+  role); otherwise → ``brace``.
+"""
+
+from __future__ import annotations
+
+import math
+
+from engine.model import Member, Section
+from ifc_io.read_axes import member_axis, read_geometry, tessellated_axis
+from ifc_io.read_geometry import arg
+from ifc_io.read_materials import material_info
+from ifc_io.read_profiles import cardinal_offset, profile_name, section_from_profile
+from rules.catalog import lookup_section
+
+__all__ = ["member_role", "read_members", "MIN_AXIS_LENGTH_MM", "ROLE_ANGLE_DEG", "AXIS_OFF_BODY_MM"]
+
+MIN_AXIS_LENGTH_MM = 0.01
+"""An axis shorter than this is zero-length: the member is skipped with a warning."""
+ROLE_ANGLE_DEG = 10.0
+"""An untyped IfcMember within this angle of horizontal is a beam, of vertical ``other``."""
+AXIS_OFF_BODY_MM = 10.0
+"""An Axis farther than this outside the body's section box gets a warning (it is still used)."""
+
+_BRACE_TYPES = {"BRACE", "STRUT", "TIEBAR", "STAY_CABLE", "SUSPENSION_CABLE", "SUSPENDER", "CABLE"}
+_COLUMN_TYPES = {"POST", "STUD"}
+_BEAM_TYPES = {"PURLIN", "RAFTER", "STRINGER", "CHORD", "COLLAR", "JOIST"}
+_ARBITRARY = ("IfcArbitraryClosedProfileDef", "IfcArbitraryProfileDefWithVoids", "IfcArbitraryOpenProfileDef")
+
+
+def member_role(ifc_class_of, predefined_type: str, start, end) -> str:
+    """The member's role (see the module docstring). ``ifc_class_of(name)`` answers whether the
+    element is of an IFC class (an entity's ``is_a``)."""
+    if ifc_class_of("IfcBeam"):
+        return "beam"
+    if ifc_class_of("IfcColumn"):
+        return "column"
+    p = (predefined_type or "").upper()
+    if p in _BRACE_TYPES:
+        return "brace"
+    if p in _COLUMN_TYPES:
+        return "column"
+    if p in _BEAM_TYPES:
+        return "beam"
+    length = math.dist(start, end)
+    if length == 0:
+        return "other"
+    elevation = math.degrees(math.asin(min(1.0, abs(float(end[2]) - float(start[2])) / length)))
+    if elevation <= ROLE_ANGLE_DEG:
+        return "beam"
+    if elevation >= 90.0 - ROLE_ANGLE_DEG:
+        return "other"
+    return "brace"
+
+
+def _predefined(el, index) -> str:
+    p = getattr(el, "PredefinedType", None)
+    if p in (None, "NOTDEFINED", "USERDEFINED"):
+        t = index.element_type(el)
+        tp = getattr(t, "PredefinedType", None) if t is not None else None
+        if tp not in (None, "NOTDEFINED", "USERDEFINED"):
+            return str(tp)
+        if p == "USERDEFINED":
+            return str(getattr(el, "ObjectType", None) or p)
+    return str(p) if p else ""
+
+
+def _name_candidates(el, index, profile) -> list[str]:
+    """Strings that may name the section, most specific first, split on ':' and '|'."""
+    raw = []
+    if profile is not None:
+        raw.append(profile_name(profile))
+    t = index.element_type(el)
+    if t is not None:
+        raw.append(t.Name or "")
+    raw.extend([getattr(el, "ObjectType", None) or "", el.Name or ""])
+    out: list[str] = []
+    for s in raw:
+        s = (s or "").strip()
+        if not s:
+            continue
+        for c in [s, *[p.strip() for p in s.replace("|", ":").split(":")]]:
+            if c and c not in out:
+                out.append(c)
+    return out
+
+
+class _SectionCache:
+    def __init__(self, ctx):
+        self.ctx = ctx
+        self.by_profile: dict[int, Section | None] = {}
+
+    def parametric(self, profile) -> Section | None:
+        key = profile.id()
+        if key not in self.by_profile:
+            self.by_profile[key] = section_from_profile(profile, self.ctx.mm)
+        return self.by_profile[key]
+
+
+def _section(el, info, geom, cache: _SectionCache, ctx) -> tuple[Section, object | None, str | None]:
+    """(section, profile used, problem sentence or None)."""
+    profile = info.profile
+    if profile is None and geom.solid is not None:
+        profile = geom.solid.profile
+    if profile is not None:
+        sec = cache.parametric(profile)
+        if sec is not None:
+            return sec, profile, None
+    for name in _name_candidates(el, ctx.index, profile):
+        sec = lookup_section(name)
+        if sec is not None:
+            return sec, profile, None
+    pname = profile_name(profile) if profile is not None else ""
+    what = f"profile {pname!r} ({profile.is_a()})" if profile is not None else "no profile"
+    return (Section(name=pname or "", kind="unknown", source="unknown"), profile,
+            f"section unknown: {what} is not parametric and no name of it is in the section catalog")
+
+
+def _web_along_profile_x(profile, section: Section, ctx) -> bool:
+    """For an arbitrary outline: does the catalog section's depth run along the outline's x?"""
+    if profile is None or profile.is_a() not in _ARBITRARY or section.kind not in ("I", "channel", "tee"):
+        return False
+    bbox = ctx.bbox(profile)
+    if bbox is None or section.depth is None or section.width is None:
+        return False
+    ex, ey = (bbox[2] - bbox[0]) * ctx.mm, (bbox[3] - bbox[1]) * ctx.mm
+    as_is = abs(ey - section.depth) + abs(ex - section.width)
+    swapped = abs(ex - section.depth) + abs(ey - section.width)
+    return swapped + 1e-6 < as_is
+
+
+def _profile_centre(profile, ctx) -> tuple[float, float]:
+    if profile is None or profile.is_a() not in _ARBITRARY:
+        return (0.0, 0.0)
+    bbox = ctx.bbox(profile)
+    if bbox is None:
+        return (0.0, 0.0)
+    return ((bbox[0] + bbox[2]) / 2, (bbox[1] + bbox[3]) / 2)
+
+
+def _vec(v, scale: float = 1.0) -> tuple[float, float, float]:
+    return (float(v[0]) * scale, float(v[1]) * scale, float(v[2]) * scale)
+
+
+def read_members(ctx, steel_resolver, properties: tuple[str, ...] = ()) -> list[Member]:
+    """Every IfcBeam, IfcColumn and IfcMember with a usable axis (warnings go to ``ctx``)."""
+    members: list[Member] = []
+    seen: set[int] = set()
+    cache = _SectionCache(ctx)
+    for cls in ("IfcBeam", "IfcColumn", "IfcMember"):
+        try:
+            elements = ctx.model.by_type(cls)
+        except RuntimeError:
+            continue
+        for el in elements:
+            if el.id() in seen:
+                continue
+            seen.add(el.id())
+            try:
+                m = _read_member(el, ctx, cache, steel_resolver, properties)
+            except Exception as exc:  # one bad element never stops the read
+                ctx.warn(f"{el.is_a()} could not be read ({type(exc).__name__}: {exc}); skipped",
+                         getattr(el, "GlobalId", None))
+                continue
+            if m is not None:
+                members.append(m)
+    return members
+
+
+def _read_member(el, ctx, cache, steel_resolver, properties) -> Member | None:
+    # IfcElement attributes by position (the same in IFC2X3, IFC4, IFC4X3): GlobalId 0, Name 2, Tag 7
+    gid = arg(el, 0)
+    cls = el.is_a()
+    name, tag = arg(el, 2) or "", arg(el, 7) or ""
+    label = tag or name
+    who = f"{cls} {label!r}" if label else cls
+    try:
+        geom = read_geometry(el, ctx.index, ctx.resolver)
+    except ValueError as exc:  # an unresolvable placement
+        ctx.warn(f"{who}: {exc}; member skipped", gid)
+        return None
+    info = material_info(el, ctx.index)
+    section, profile, problem = _section(el, info, geom, cache, ctx)
+    if problem:
+        ctx.warn(f"{who}: {problem}", gid)
+    swap = _web_along_profile_x(profile, section, ctx)
+    centre = _profile_centre(profile, ctx)
+    card = None
+    if info.cardinal_point is not None and section.width is not None and section.depth is not None:
+        card = cardinal_offset(info.cardinal_point, section.width / ctx.mm, section.depth / ctx.mm)
+    axis = member_axis(geom, profile_centre=centre, swap_web=swap, cardinal_offset=card)
+    scale = ctx.mm
+    if axis is None and geom.has_body:
+        axis = tessellated_axis(ctx.model, el)
+        if axis is not None:
+            scale = 1000.0  # the kernel returns metres
+    if axis is None:
+        why = "it has no representation" if arg(el, 6) is None and not geom.has_body else (
+            "no Axis curve, swept solid or body vertices give one")
+        ctx.warn(f"{who}: axis not found ({why}); member skipped", gid)
+        return None
+    if axis.note:
+        ctx.warn(f"{who}: {axis.note}", gid)
+    start, end = _vec(axis.start, scale), _vec(axis.end, scale)
+    length = math.dist(start, end)
+    if length < MIN_AXIS_LENGTH_MM:
+        ctx.warn(f"{who}: zero-length axis at {tuple(round(c, 1) for c in start)} mm; member skipped", gid)
+        return None
+    predefined = _predefined(el, ctx.index)
+    role = member_role(el.is_a, predefined, start, end)
+    steel, steel_problem = steel_resolver.resolve(info.labels)
+    if steel_problem:
+        ctx.warn(f"{who}: {steel_problem}", gid)
+    offset = None
+    if axis.axis_offset is not None:
+        offset = tuple(round(float(v) * scale, 3) + 0.0 for v in axis.axis_offset)
+        if (axis.source == "axis" and geom.solid is not None and section.width and section.depth
+                and (abs(offset[0]) > section.width / 2 + AXIS_OFF_BODY_MM
+                     or abs(offset[1]) > section.depth / 2 + AXIS_OFF_BODY_MM)):
+            ctx.warn(f"{who}: its Axis representation lies outside the body's section "
+                     f"(offset {offset[0]:.0f}, {offset[1]:.0f} mm from the profile centre); "
+                     f"the Axis is used as modelled", gid)
+    props: dict[str, object] = {}
+    for dotted in properties:
+        pset, _, prop = dotted.partition(".")
+        if pset and prop:
+            v = ctx.index.property_value(el, pset, prop)
+            if v is not None:
+                props[dotted] = v
+    return Member(
+        global_id=gid,
+        ifc_class=cls,
+        role=role,
+        start=start,
+        end=end,
+        section=section,
+        steel=steel,
+        name=name,
+        tag=tag,
+        storey=ctx.index.storey_name(el),
+        predefined_type=predefined,
+        web_dir=_vec(axis.web_dir) if axis.web_dir is not None else None,
+        cardinal_point=info.cardinal_point,
+        axis_offset=offset,
+        axis_source=axis.source,
+        properties=props,
+    )

@@ -1,0 +1,154 @@
+"""One pass over the model's relationships, indexed by entity id, so per-element look-ups are
+dictionary reads instead of inverse-attribute walks.
+
+Covers: spatial containment (IfcRelContainedInSpatialStructure), aggregation (IfcRelAggregates,
+assemblies and the spatial tree), types (IfcRelDefinesByType), materials
+(IfcRelAssociatesMaterial), element connections (IfcRelConnectsElements and subtypes, with the
+realizing elements of IfcRelConnectsWithRealizingElements), openings (IfcRelVoidsElement /
+IfcRelFillsElement) and, when asked for, property sets (IfcRelDefinesByProperties). The same code
+reads IFC2X3, IFC4 and IFC4X3 (in IFC2X3 a type is also reached through IfcRelDefinesByType).
+"""
+
+from __future__ import annotations
+
+from collections import defaultdict
+
+from ifc_io.read_geometry import arg
+
+__all__ = ["RelationIndex"]
+
+
+def _by_type(model, cls: str):
+    try:
+        return model.by_type(cls)
+    except RuntimeError:  # the class does not exist in this schema
+        return []
+
+
+class RelationIndex:
+    """Relationship look-ups for one model (ids are ``entity.id()``)."""
+
+    def __init__(self, model, with_properties: bool = False) -> None:
+        self.model = model
+        self.container: dict[int, object] = {}
+        self.parent: dict[int, object] = {}
+        self.children: dict[int, list] = defaultdict(list)
+        self.type_of: dict[int, object] = {}
+        self.material: dict[int, object] = {}
+        self.connected: dict[int, list] = defaultdict(list)
+        self.opening_host: dict[int, object] = {}
+        self.filled_opening: dict[int, list] = defaultdict(list)
+        self.psets: dict[int, list] = defaultdict(list)
+        self._storey_cache: dict[int, str] = {}
+        self._storey_names: dict[int, str] = {}
+        self.material_cache: dict[int, object] = {}  # read_materials: per material select
+
+        # Positional reads (attributes 4 and 5 of these relationships are the same in IFC2X3,
+        # IFC4 and IFC4X3) keep this pass cheap on large models.
+        for rel in _by_type(model, "IfcRelContainedInSpatialStructure"):
+            structure = arg(rel, 5)  # RelatingStructure
+            for el in arg(rel, 4) or ():  # RelatedElements
+                self.container.setdefault(el.id(), structure)
+        for rel in _by_type(model, "IfcRelAggregates"):
+            whole = arg(rel, 4)  # RelatingObject
+            for part in arg(rel, 5) or ():  # RelatedObjects
+                self.parent.setdefault(part.id(), whole)
+                self.children[whole.id()].append(part)
+        for rel in _by_type(model, "IfcRelDefinesByType"):
+            t = arg(rel, 5)  # RelatingType
+            for obj in arg(rel, 4) or ():  # RelatedObjects
+                self.type_of.setdefault(obj.id(), t)
+        for rel in _by_type(model, "IfcRelAssociatesMaterial"):
+            mat = arg(rel, 5)  # RelatingMaterial
+            for obj in arg(rel, 4) or ():  # RelatedObjects
+                self.material.setdefault(obj.id(), mat)
+        for rel in _by_type(model, "IfcRelConnectsElements"):
+            a, b = rel.RelatingElement, rel.RelatedElement
+            if a is None or b is None:
+                continue
+            self.connected[a.id()].append(b)
+            self.connected[b.id()].append(a)
+            for r in getattr(rel, "RealizingElements", None) or ():
+                self.connected[r.id()].extend((a, b))
+        for rel in _by_type(model, "IfcRelVoidsElement"):
+            if rel.RelatedOpeningElement is not None and rel.RelatingBuildingElement is not None:
+                self.opening_host[rel.RelatedOpeningElement.id()] = rel.RelatingBuildingElement
+        for rel in _by_type(model, "IfcRelFillsElement"):
+            if rel.RelatedBuildingElement is not None and rel.RelatingOpeningElement is not None:
+                self.filled_opening[rel.RelatedBuildingElement.id()].append(rel.RelatingOpeningElement)
+        if with_properties:
+            for rel in _by_type(model, "IfcRelDefinesByProperties"):
+                pdef = rel.RelatingPropertyDefinition
+                for obj in rel.RelatedObjects or ():
+                    self.psets[obj.id()].append(pdef)
+
+    # ------------------------------------------------------------------------------------
+    def element_type(self, element):
+        """The element's type object (IfcTypeObject) or ``None``; IFC2X3 and IFC4 alike."""
+        return self.type_of.get(element.id())
+
+    def storey_name(self, element) -> str:
+        """Name of the building storey the element is in: its spatial container, or the
+        container of the assembly (or other whole) it is part of, walked up to a storey."""
+        key = element.id()
+        hit = self._storey_cache.get(key)
+        if hit is not None:
+            return hit
+        node, container = element, None
+        for _ in range(16):
+            container = self.container.get(node.id())
+            if container is not None:
+                break
+            whole = self.parent.get(node.id())
+            if whole is None:
+                break
+            node = whole
+        name = ""
+        struct = container
+        for _ in range(16):
+            if struct is None:
+                break
+            if struct.is_a("IfcBuildingStorey"):
+                sid = struct.id()
+                name = self._storey_names.get(sid)
+                if name is None:
+                    name = self._storey_names[sid] = (struct.Name or getattr(struct, "LongName", None) or "").strip()
+                break
+            struct = self.parent.get(struct.id()) or self.container.get(struct.id())
+        self._storey_cache[key] = name
+        return name
+
+    def assembly_of(self, element):
+        """The IfcElementAssembly the element is aggregated into, or ``None``."""
+        whole = self.parent.get(element.id())
+        if whole is not None and whole.is_a("IfcElementAssembly"):
+            return whole
+        return None
+
+    def hosts(self, element) -> list:
+        """Elements a connection part is related to: explicit element connections, the host of
+        an opening it fills, and the whole it is aggregated into when that is not an assembly."""
+        out = list(self.connected.get(element.id(), ()))
+        for opening in self.filled_opening.get(element.id(), ()):
+            host = self.opening_host.get(opening.id())
+            if host is not None:
+                out.append(host)
+        whole = self.parent.get(element.id())
+        if whole is not None and whole.is_a("IfcElement") and not whole.is_a("IfcElementAssembly"):
+            out.append(whole)
+        return out
+
+    def property_value(self, element, pset_name: str, prop_name: str):
+        """A single property value (unwrapped) from the element's, else its type's, property set."""
+        sources = list(self.psets.get(element.id(), ()))
+        t = self.element_type(element)
+        if t is not None:
+            sources += list(getattr(t, "HasPropertySets", None) or ())
+        for pdef in sources:
+            if pdef is None or not pdef.is_a("IfcPropertySet") or (pdef.Name or "") != pset_name:
+                continue
+            for prop in pdef.HasProperties or ():
+                if prop.Name == prop_name and prop.is_a("IfcPropertySingleValue"):
+                    v = prop.NominalValue
+                    return getattr(v, "wrappedValue", v)
+        return None
