@@ -197,6 +197,8 @@ class ConnectionPart:
     ``dims`` holds key dimensions in mm as the model gives them (e.g. ``thickness``, ``width``,
     ``depth`` for a plate; ``length`` for a bolt). ``assembly`` is the GlobalId of the
     IfcElementAssembly it is part of, ``hosts`` the GlobalIds of members it is related to.
+    ``properties`` holds the part's single-value properties as ``{"Pset.Property": value}`` (length
+    measures in mm) for plates and non-bolt fasteners, where weld sizes and grades are often kept.
     """
 
     global_id: str
@@ -216,6 +218,7 @@ class ConnectionPart:
     assembly: str | None = None
     hosts: tuple[str, ...] = ()
     storey: str = ""
+    properties: Mapping[str, object] = field(default_factory=dict)
 
 
 @dataclass(frozen=True)
