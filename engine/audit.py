@@ -142,10 +142,11 @@ def run_audit(
         choices = _propose(finding, demands, choices, members, ruleset, policy, design_space, progress)
 
     results: list[JointResult] = []
+    cantilevers = frozenset(j.beam for j in finding.joints if j.kind == "free-end")
     total = len(finding.joints)
     step = max(1, total // 100)
     for i, j in enumerate(finding.joints):
-        results.extend(evaluate_joints([j], demands, choices, members, ruleset, policy))
+        results.extend(evaluate_joints([j], demands, choices, members, ruleset, policy, cantilevers=cantilevers))
         if i % step == 0:
             progress("checks", i, total)
     progress("checks", total, total)

@@ -2,8 +2,9 @@
 
 Status rules (DESIGN.md §3):
 
-* ``not-checked`` — a joint whose type has no rule set yet (wall bearing, beam over, splice, unknown)
-  or a free end; the note says which ("needs design, type not checked" or "free end");
+* ``not-checked`` — a joint whose type has no rule set yet (wall bearing, beam over, splice, unknown,
+  the root of a cantilever, which needs a moment connection) or a free end; the note says which
+  ("needs design, type not checked" or "free end");
 * ``incomplete`` — data missing (no end shear, a modelled connection missing a dimension, a check
   whose inputs are missing or out of its validity range); ``missing`` says what;
 * ``needs-design`` — a shear joint with an end shear but no connection modelled or scheduled (or, with
@@ -62,10 +63,18 @@ def evaluate_joint(
     ruleset,
     policy: str,
     demand_missing: str = "end shear (no source in demand.order gave a value)",
+    cantilever_root: bool = False,
 ) -> JointResult:
-    """The result of one joint (see the module docstring for the status rules)."""
+    """The result of one joint (see the module docstring for the status rules). ``cantilever_root``:
+    the beam's other end is free, so this end must carry the cantilever's moment."""
     if joint.kind == "free-end":
         return JointResult(joint, demand, None, (), None, None, "not-checked", note="free end: no support, nothing to connect")
+    if cantilever_root:
+        return JointResult(
+            joint, demand, choice.plate if choice else None, (), None, None, "not-checked",
+            note="needs design, type not checked: the other end of this beam is free, so this is the root of "
+                 "a cantilever and needs a moment connection, not a simple fin plate",
+        )
     if joint.kind not in FIN_PLATE_KINDS:
         return JointResult(
             joint, demand, choice.plate if choice else None, (), None, None, "not-checked",
@@ -104,12 +113,15 @@ def evaluate_joints(
     ruleset,
     policy: str,
     demand_reasons: Mapping[str, str] | None = None,
+    cantilevers: frozenset[str] | None = None,
 ) -> tuple[JointResult, ...]:
-    """One :class:`JointResult` per joint, in the joints' order."""
+    """One :class:`JointResult` per joint, in the joints' order. ``cantilevers``: GlobalIds of beams
+    with one free end (their supported end is a cantilever root)."""
     out = []
     for j in joints:
         beam = members[j.beam]
         support = members.get(j.support) if j.support else None
         reason = (demand_reasons or {}).get(j.id) or "end shear (no source in demand.order gave a value)"
-        out.append(evaluate_joint(j, demands.get(j.id), choices.get(j.id), beam, support, ruleset, policy, reason))
+        out.append(evaluate_joint(j, demands.get(j.id), choices.get(j.id), beam, support, ruleset, policy, reason,
+                                  cantilever_root=j.beam in (cantilevers or ()) and j.kind != "free-end"))
     return tuple(out)

@@ -129,7 +129,9 @@ class Combination:
     @property
     def label(self) -> str:
         """``"<name> (<source>)"``, e.g. ``"1.2G + 1.5Q (AS/NZS 1170.0 4.2.2)"``."""
-        return f"{self.name} ({self.source})" if self.source else self.name
+        if not self.source or self.source.split(" ")[0] in self.name:
+            return self.name  # the name already cites the standard
+        return f"{self.name} ({self.source})"
 
     def combine(self, G: float, Q: float) -> tuple[float, str]:
         """Design value (N) of an effect with unfactored parts G and Q, and which case governs."""

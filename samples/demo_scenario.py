@@ -690,7 +690,7 @@ def _schedule(by_tag: dict) -> list[ScheduleRow]:
     return [
         row("tag", "L2-G-B12", "both", 10.0, 4, 60.0, COLUMN_CLEARANCE, 85.0),
         row("globalid", "L1-B-1AB", "start", 10.0, 4, 60.0, COLUMN_CLEARANCE, 85.0),
-        row("section", "310UB40.4", "both", 10.0, 3, 60.0, GIRDER_CLEARANCE, 55.0),
+        row("section", "310UB40.4", "both", 10.0, 3, 60.0, GIRDER_CLEARANCE, 70.0),
     ]
 
 

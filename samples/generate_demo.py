@@ -89,8 +89,23 @@ def _joint_truth(sc: Scenario, j: JointSpec) -> dict:
         "model_shear_kN": j.model_shear_kN,
         "schedule_row": j.schedule_row,
         "intended": j.intended,
+        "expected_status": _expected_status(j),
         "why": j.why,
     }
+
+
+def _expected_status(j) -> str:
+    """The audit status the demo is built to give this joint under its config (code AS 4100,
+    conservative policy, the demo schedule): adequate plates and scheduled joints pass, too-weak
+    plates fail, shear joints with nothing modelled or scheduled need design, and joints that are not
+    fin-plate joints (wall bearing, free end, cantilever root, splice) are not checked."""
+    if j.intended == "adequate":
+        return "pass"
+    if j.intended == "too-weak":
+        return "fail"
+    if j.intended == "no-connection":
+        return "pass" if j.schedule_row is not None else "needs-design"
+    return "not-checked"
 
 
 def truth_dict(sc: Scenario) -> dict:
