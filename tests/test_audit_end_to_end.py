@@ -18,7 +18,7 @@ from lxml import etree
 from engine.cli import main
 from ifc_io.write_psets import read_joint_psets
 
-from conftest import SAMPLES
+SAMPLES = Path(__file__).resolve().parents[1] / "samples"
 
 TRUTH = json.loads((SAMPLES / "demo-truth.json").read_text())
 BCF_XSD = Path(__file__).resolve().parents[2] / "shared" / "schemas" / "bcf" / "2.1"

@@ -4,6 +4,7 @@ from both demo files exactly as the generator built them (samples/demo-truth.jso
 from __future__ import annotations
 
 import json
+from pathlib import Path
 
 import pytest
 
@@ -17,7 +18,7 @@ from engine.tolerances import Tolerances
 from ifc_io.library import read_frame_with_connections
 from rules.catalog import lookup_steel
 
-from conftest import SAMPLES
+SAMPLES = Path(__file__).resolve().parents[1] / "samples"
 
 TRUTH = json.loads((SAMPLES / "demo-truth.json").read_text())
 FILES = [TRUTH["files"]["ifc4"], TRUTH["files"]["ifc2x3"]]
