@@ -102,20 +102,22 @@ def elevation_prims(
     r = (plate.bolts.hole_diameter or plate.bolts.diameter + 2.0) / 2.0
     for x, y in xy:
         prims.append(Prim("circle", (float(x), float(y), r), "bolt"))
+    y_text = y_bot - 30.0
+    if hinge:
+        # the hinge as a dashed line across the beam at the support face or the bolt-group centroid
+        hx = 0.0 if hinge == "support-face" else plate.a + (plate.lines - 1) * plate.gauge / 2.0
+        prims.append(Prim("line", (hx, y_top + 20.0, hx, y_bot - 10.0), "hinge"))
+        prims.append(Prim("text", (hx + 6.0, y_top + 26.0), "note", HINGE_LABEL.get(hinge, hinge)))
     if bolt_forces is not None and len(bolt_forces):
         fmax = float(np.max(np.hypot(bolt_forces[:, 0], bolt_forces[:, 1]))) or 1.0
+        s = 0.8 * min(plate.pitch if plate.rows > 1 else 60.0, 60.0) / fmax  # the largest arrow spans 0.8 pitch
         for (x, y), (fx, fy) in zip(xy, bolt_forces):
-            s = 60.0 / fmax
             prims.append(Prim("arrow", (float(x), float(y), float(x + fx * s), float(y + fy * s)), "force"))
-        prims.append(Prim("text", (plate.width + 20.0, -plate.depth - 25.0), "note",
-                          f"largest bolt force {fmax / 1e3:.1f} kN"))
-    if hinge:
-        hx = 0.0 if hinge == "support-face" else plate.a + (plate.lines - 1) * plate.gauge / 2.0
-        hy = -plate.depth / 2.0
-        prims.append(Prim("circle", (hx, hy, 9.0), "hinge"))
-        prims.append(Prim("text", (hx + 14.0, y_top + 22.0), "note", HINGE_LABEL.get(hinge, hinge)))
-    prims.append(Prim("text", (0.0, -plate.depth - 25.0), "note",
-                      f"plate {plate.thickness:g} x {plate.depth:g} x {plate.width:g}, {plate.n_bolts} x {plate.bolts.size}"))
+    prims.append(Prim("text", (0.0, y_text), "note",
+                      f"plate {plate.thickness:g} x {plate.depth:g} x {plate.width:g}, {plate.n_bolts} x {plate.bolts.size} {plate.bolts.grade}"))
+    if bolt_forces is not None and len(bolt_forces):
+        prims.append(Prim("text", (0.0, y_text - 28.0), "note",
+                          f"arrows: force on the plate from each bolt; largest {fmax / 1e3:.1f} kN"))
     return prims
 
 
@@ -182,7 +184,8 @@ def to_svg(prims: Sequence[Prim], *, width_px: int = 420, title: str = "", text_
         elif p.kind == "circle":
             out.append(f'<circle cx="{c[0]:.1f}" cy="{-c[1]:.1f}" r="{c[2]:.1f}" {common}/>')
         elif p.kind == "line":
-            out.append(f'<line x1="{c[0]:.1f}" y1="{-c[1]:.1f}" x2="{c[2]:.1f}" y2="{-c[3]:.1f}" stroke="{stroke}" stroke-width="{sw_u:.2f}"/>')
+            dash = f' stroke-dasharray="{6 * unit:.1f} {4 * unit:.1f}"' if p.role == "hinge" else ""
+            out.append(f'<line x1="{c[0]:.1f}" y1="{-c[1]:.1f}" x2="{c[2]:.1f}" y2="{-c[3]:.1f}" stroke="{stroke}" stroke-width="{sw_u:.2f}"{dash}/>')
         elif p.kind == "arrow":
             if math.hypot(c[2] - c[0], c[3] - c[1]) > 1e-9:
                 out.append(f'<line x1="{c[0]:.1f}" y1="{-c[1]:.1f}" x2="{c[2]:.1f}" y2="{-c[3]:.1f}" stroke="{stroke}" '

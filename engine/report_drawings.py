@@ -83,9 +83,15 @@ def issue_drawings(
         by_storey[m.storey].append(m)
     symbols = []
     extents: dict[str, tuple[float, float, float, float]] = {}
+    columns = [m for m in members.values() if m.role == "column"]
     for st in storeys:
-        beams = [(m.start[0], m.start[1], m.end[0], m.end[1]) for m in by_storey[st] if m.role != "column"]
-        cols = [(m.start[0], m.start[1]) for m in by_storey[st] if m.role == "column"]
+        level = [m for m in by_storey[st] if m.role != "column"]
+        beams = [(m.start[0], m.start[1], m.end[0], m.end[1]) for m in level]
+        zs = sorted(max(m.start[2], m.end[2]) for m in level)
+        z = zs[len(zs) // 2] if zs else 0.0
+        # the columns that pass through (or stop at) this floor, wherever they are contained
+        cols = [(m.start[0], m.start[1]) for m in columns
+                if min(m.start[2], m.end[2]) - 1.0 <= z <= max(m.start[2], m.end[2]) + 1.0]
         prims = [p for p in plan_prims(beams, cols, (0.0, 0.0)) if p.role != "mark"]
         svg = to_svg(prims, width_px=420, uid=_storey_key(st))
         m = re.match(r'<svg [^>]*viewBox="([^"]+)"', svg)

@@ -81,8 +81,11 @@ _JS = """
 
 
 def issue_joints(doc: Mapping[str, Any]) -> list[Mapping[str, Any]]:
-    """The joints of a results document that are issues, in joint-id order."""
-    return [j for j in doc["joints"] if j["status"] in ISSUE_STATUSES]
+    """The joints of a results document that are issues: failures first, then incomplete, then those
+    needing design; within each, highest utilisation first, then by joint id (stable)."""
+    rank = {"fail": 0, "incomplete": 1, "needs-design": 2}
+    issues = [j for j in doc["joints"] if j["status"] in ISSUE_STATUSES]
+    return sorted(issues, key=lambda j: (rank[j["status"]], -(j.get("utilisation") or 0.0), j["id"]))
 
 
 def _fmt(v: Any, nd: int = 2) -> str:
@@ -130,7 +133,7 @@ def _issue(j: Mapping[str, Any], drawings: Mapping[str, str]) -> str:
     missing = "".join(f"<li>{escape(m)}</li>" for m in j.get("missing") or [])
     conn = j.get("connection")
     baseline = f'<span class="tag">{escape(j["baseline"])}</span>' if j.get("baseline") else ""
-    title = f"{escape(j.get('beam_name') or j['beam'])} ({escape(j['end'])} end) on {escape(j.get('support_name') or j.get('support') or 'no support')}"
+    title = f"{escape(j['end'])} of {escape(j.get('beam_name') or j['beam'])} on {escape(j.get('support_name') or j.get('support') or 'no support')}"
     figs = ""
     if drawings.get("elevation"):
         figs += f"<figure>{drawings['elevation']}<figcaption>Connection elevation (schematic, mm)</figcaption></figure>"

@@ -90,7 +90,7 @@ def _point(parent, tag: str, xyz: Sequence[float]) -> None:
 
 
 def _describe(j: Mapping[str, Any]) -> str:
-    parts = [f"Joint {j['id']}: {j.get('beam_name') or j['beam']} ({j['end']} end) on "
+    parts = [f"Joint {j['id']}: {j['end']} of {j.get('beam_name') or j['beam']} on "
              f"{j.get('support_name') or j.get('support') or 'no support'}, {j['kind']}, support {j['stiffness']}."]
     d = j.get("demand")
     if d:
@@ -121,7 +121,7 @@ def _markup(j: Mapping[str, Any], doc: Mapping[str, Any], version: str, date: st
     if date:
         _sub(f, "Date", date)
     topic = _sub(root, "Topic", Guid=topic_guid(jid), TopicType="Structural connection", TopicStatus=status)
-    title = f"{'Resolved: ' if closed else ''}{_TITLES.get(j['status'], 'Connection issue')} — {j.get('beam_name') or j['beam']} ({j['end']})"
+    title = f"{'Resolved: ' if closed else ''}{_TITLES.get(j['status'], 'Connection issue')} — {j['end']} of {j.get('beam_name') or j['beam']}"
     _sub(topic, "Title", title)
     labels = ["joint-audit", j["status"], j["kind"]] + ([j["storey"]] if j.get("storey") else [])
     if version == "3.0":
