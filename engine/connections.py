@@ -18,8 +18,9 @@ diameter), the shear joints, and the members. For each plate:
 Anything that cannot be read (no bolts, a bolt pattern that is not a regular grid, no bolt diameter or
 grade) makes the connection ``incomplete`` naming what is missing. Plate grade from the plate's
 material (else the configured default, with a warning); weld from the plate's properties where the
-model gives a leg and an electrode (``WeldLeg``/``WeldElectrode``-like names), else the configured
-default (with a warning saying so).
+model gives a leg and an electrode — a weld fastener (IfcFastener of type WELD) in the plate's
+assembly, or ``WeldLeg``/``WeldElectrode``-like properties on the plate — else the configured default
+(with a warning saying so).
 
 Lengths in mm. An aid to a competent engineer: results must be checked; local codes and licensed
 practice take precedence.
@@ -86,14 +87,22 @@ def _centre(p: ConnectionPart) -> np.ndarray | None:
     return None
 
 
-def _weld_from(plate: ConnectionPart) -> Weld | None:
+def _weld_from(plate: ConnectionPart, fasteners: Sequence[ConnectionPart] = ()) -> Weld | None:
+    """The weld from a modelled weld fastener of the plate's assembly (an IfcFastener of predefined
+    type WELD), else from the plate's own properties; ``None`` when neither gives leg and electrode."""
+    for f in fasteners:
+        if f.predefined_type.upper() == "WELD":
+            w = _weld_from(f)
+            if w is not None:
+                return w
     props = getattr(plate, "properties", None) or {}
     leg = elec = None
     for k, v in props.items():
         key = k.split(".")[-1].lower()
-        if "weld" in key and ("leg" in key or "size" in key) and isinstance(v, (int, float)):
+        weldish = "weld" in key or plate.predefined_type.upper() == "WELD"
+        if weldish and ("leg" in key or "size" in key) and isinstance(v, (int, float)):
             leg = float(v)
-        elif "weld" in key and ("electrode" in key or "consumable" in key) and isinstance(v, str):
+        elif weldish and ("electrode" in key or "consumable" in key) and isinstance(v, str):
             elec = v
     if leg is not None and elec:
         return Weld(leg, elec, True)
@@ -154,6 +163,10 @@ def recover_fin_plates(
     for b in bolts:
         if b.assembly:
             bolts_by_asm[b.assembly].append(b)
+    fasteners_by_asm: dict[str, list[ConnectionPart]] = defaultdict(list)
+    for f in parts:
+        if f.kind == "fastener" and f.assembly:
+            fasteners_by_asm[f.assembly].append(f)
     free_bolts = [b for b in bolts if not b.assembly]
     free_centres = np.array([_centre(b) for b in free_bolts]) if free_bolts else np.zeros((0, 3))
 
@@ -209,7 +222,7 @@ def recover_fin_plates(
         else:
             its_bolts = _bolts_on_plate(p, free_bolts, free_centres)
         out[jid] = _recover_one(p, its_bolts, frames[jid], members[j.beam], j, steel_lookup, default_weld,
-                                default_plate_grade, warnings)
+                                default_plate_grade, warnings, fasteners_by_asm.get(p.assembly or "", []))
     return out, warnings
 
 
@@ -228,7 +241,7 @@ def _bolts_on_plate(p: ConnectionPart, bolts: list[ConnectionPart], centres: np.
 
 def _recover_one(p: ConnectionPart, bolts: list[ConnectionPart], f: _Frame, beam: Member, j: Joint,
                  steel_lookup: Callable[[str], Steel | None], default_weld: Weld, default_plate_grade: str,
-                 warnings: list[DataWarning]) -> ConnectionChoice:
+                 warnings: list[DataWarning], fasteners: Sequence[ConnectionPart] = ()) -> ConnectionChoice:
     missing: list[str] = []
     width = float(p.dims.get("width", 0.0))
     depth = float(p.dims.get("depth", 0.0))
@@ -266,7 +279,7 @@ def _recover_one(p: ConnectionPart, bolts: list[ConnectionPart], f: _Frame, beam
                                     f"assumed {default_plate_grade}", beam.global_id, "connections"))
         if steel is None:
             return ConnectionChoice(None, "modelled", ("plate steel grade",), note=f"modelled plate {p.global_id}")
-    weld = _weld_from(p)
+    weld = _weld_from(p, fasteners)
     if weld is None:
         weld = default_weld
         warnings.append(DataWarning(f"weld of plate {p.global_id} not in the model; assumed {weld.leg:g} mm "

@@ -82,6 +82,14 @@ def load_schedules(paths: Sequence[str | Path]):
     return demand, connection
 
 
+def _header_file_name(model: ifcopenshell.file) -> str:
+    """The file name the model's STEP header records, else ``"model"``."""
+    try:
+        return Path(str(model.header.file_name.name)).name or "model"
+    except (AttributeError, RuntimeError):
+        return "model"
+
+
 def design_space_for(cfg: Mapping[str, Any], lookup_steel):
     """The ``--design`` candidate table of the configured code, with its plate steel and electrode."""
     from engine.config import DEFAULT_ELECTRODE_BY_CODE, DEFAULT_PLATE_GRADE_BY_CODE
@@ -126,7 +134,7 @@ def audit_model(
         cfg = merge_config(cfg, {"code": code})
     ruleset = rules.load(cfg["code"])
     demand_schedule, connection_schedule = load_schedules(schedules)
-    label = file_label or (Path(model.wrapped_data.header.file_name.name).name if model.wrapped_data.header else "model")
+    label = file_label or _header_file_name(model)
     frame = read_frame_with_connections(model, cfg, label)
     kwargs: dict[str, Any] = {} if progress is None else {"progress": progress}
     if design:

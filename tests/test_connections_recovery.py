@@ -84,3 +84,17 @@ def test_grid_levels_and_regular_spacing():
     assert len(levels) == 3 and spacing == pytest.approx(70.0, abs=0.2)
     assert read_grid([35.0, 105.0, 200.0])[1] is None  # irregular
     assert read_grid([60.0, 60.3])[1] == 0.0
+
+
+def test_weld_comes_from_a_weld_fastener_then_the_plate_then_the_default():
+    from engine.connections import _weld_from
+    from engine.model import ConnectionPart
+
+    plate = ConnectionPart("P", "IfcPlate", "plate", properties={"Fab.WeldLeg": 8.0, "Fab.WeldElectrode": "E48XX"})
+    weld = ConnectionPart("W", "IfcFastener", "fastener", predefined_type="WELD",
+                          properties={"Pset_Weld.Size": 10.0, "Pset_Weld.Electrode": "E70XX"})
+    other = ConnectionPart("F", "IfcFastener", "fastener", predefined_type="ANCHORBOLT",
+                           properties={"X.Size": 3.0, "X.Electrode": "no"})
+    assert _weld_from(plate, [other, weld]) == Weld(10.0, "E70XX", True)
+    assert _weld_from(plate, [other]) == Weld(8.0, "E48XX", True)
+    assert _weld_from(ConnectionPart("P", "IfcPlate", "plate"), [other]) is None
