@@ -132,6 +132,7 @@ def run_audit(
     demands, demand_warnings = resolve_demands(
         finding.joints, members, dict(config), n_per_force_unit=frame.n_per_force_unit,
         schedule=demand_schedule, combination=ruleset.ultimate_combination(), web_shear_capacity=web_shear,
+        reactions=frame.reactions,
     )
     warnings += demand_warnings
     progress("demand", 1, 1)

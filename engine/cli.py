@@ -102,19 +102,11 @@ def build_parser() -> argparse.ArgumentParser:
 
 
 def load_frame(path: str | os.PathLike[str], config: dict[str, Any]):
-    """Open the model at ``path`` and read the frame, explicit connectivity included."""
+    """Open the model at ``path`` and read the frame, explicit connectivity and linked reactions."""
     import ifc_io
-    from ifc_io.connectivity import read_explicit_connections
+    from ifc_io.library import read_frame_with_connections
 
-    from engine.config import DEFAULT_GRADE_BY_CODE
-
-    model = ifc_io.open_model(path)
-    grade = config["materials"]["default_grade"] or DEFAULT_GRADE_BY_CODE.get(config["code"], "default")
-    frame = ifc_io.read_frame(model, default_steel=grade, config=config)
-    # keep the file name the user gave, not the resolved path, for display
-    frame = dataclasses.replace(frame, file=str(path))
-    conns, warns = read_explicit_connections(model)
-    return dataclasses.replace(frame, connections=tuple(conns), warnings=tuple(frame.warnings) + tuple(warns))
+    return read_frame_with_connections(ifc_io.open_model(path), config, str(path))
 
 
 def _find_joints(frame, config: dict[str, Any]):
@@ -216,7 +208,7 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
     from ifc_io.write_bcf import bcf_archive
     from ifc_io.write_psets import write_joint_psets
 
-    from engine.atomic import refuse_input_overwrite, write_atomic, write_atomic_with
+    from engine.atomic import refuse_input_overwrite, write_all_atomic
     from engine.raster import to_png
     from engine.report_drawings import elevation_for, issue_drawings
     from engine.report_html import render_report
@@ -232,8 +224,9 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
     doc = outcome.doc
     drawings, symbols = issue_drawings(outcome.results, outcome.members)
     html = render_report(doc, drawings, symbols)
+    # BCF snapshots of the connections that exist (a joint that needs design has nothing to show)
     snapshots = {r.joint.id: to_png(elevation_for(r, outcome.members[r.joint.beam]))
-                 for r in outcome.results if r.joint.id in drawings}
+                 for r in outcome.results if r.joint.id in drawings and r.connection is not None}
     project = model.by_type("IfcProject")
     bcf = bcf_archive(doc, version=bcf_version, project_guid=project[0].GlobalId if project else None,
                       project_name=(project[0].Name or "") if project else "", snapshots=snapshots)
@@ -250,11 +243,14 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
     }
     for t in targets.values():
         refuse_input_overwrite(t, [model_path] + ([baseline_path] if baseline_path else []) + list(schedules))
-    write_atomic(targets["results"], json.dumps(doc, indent=2, ensure_ascii=False) + "\n")
-    write_atomic(targets["schedule"], schedule_csv(doc))
-    write_atomic(targets["report"], html)
-    write_atomic(targets["bcf"], bcf)
-    write_atomic_with(targets["ifc"], lambda tmp: model.write(tmp))
+    # all or nothing: every output is written to a temporary file before any is renamed into place
+    write_all_atomic([
+        (targets["results"], json.dumps(doc, indent=2, ensure_ascii=False) + "\n"),
+        (targets["schedule"], schedule_csv(doc)),
+        (targets["report"], html),
+        (targets["bcf"], bcf),
+        (targets["ifc"], lambda tmp: model.write(tmp)),
+    ])
 
     s = doc["summary"]
     sys.stdout.write(

@@ -11,7 +11,10 @@ Sources, tried in the order ``config["demand"]["order"]`` gives; the first that 
     ``demand.end_shear`` as ``"PsetName.PropertyName"`` (looked up exactly, then ignoring case). The
     raw number is in the model's force unit and is multiplied by ``n_per_force_unit`` (N per model
     force unit, ``Frame.n_per_force_unit``). Sign conventions of analysis programs differ (the shear
-    at the two ends of a beam usually has opposite signs), so the absolute value is used.
+    at the two ends of a beam usually has opposite signs), so the absolute value is used. Where the
+    property gives no value, the end reaction from a linked structural analysis model is used if
+    ``reactions`` has one (``Frame.reactions``, read by ``ifc_io.read_analysis``; V in N and a text
+    naming the reaction and its load combination).
 ``schedule``
     A demand schedule (:mod:`engine.demand_schedule`) keyed by beam GlobalId, Tag or Name and end.
 ``tributary``
@@ -119,6 +122,20 @@ def model_shear(member: Member, key: str, n_per_force_unit: float) -> tuple[floa
                f"{V / 1e3:.2f} kN (absolute value)")
 
 
+def _linked_reaction(reactions: Mapping[tuple[str, str], tuple[float, str]] | None, beam: str,
+                     end: str) -> tuple[float, str] | None:
+    """The linked analysis model's end reaction ``(V in N, text)``, if it is a usable number."""
+    if not reactions:
+        return None
+    r = reactions.get((beam, end))
+    if r is None:
+        return None
+    V = r[0]
+    if isinstance(V, bool) or not isinstance(V, (int, float)) or not math.isfinite(V):
+        return None
+    return float(abs(V)), str(r[1])
+
+
 def resolve_demands(
     joints: Sequence[Joint],
     members: Mapping[str, Member],
@@ -129,20 +146,24 @@ def resolve_demands(
     combination: dict | None = None,
     web_shear_capacity: Callable[[Member], float | None] | None = None,
     tie_kN: float | None = None,
+    reactions: Mapping[tuple[str, str], tuple[float, str]] | None = None,
 ) -> tuple[dict[str, Demand | None], list[DataWarning]]:
     """The design actions of every joint, keyed by joint id, and the data warnings.
 
     ``config`` is the audit configuration (``engine.config.load_config``); ``n_per_force_unit``
     converts model force properties to N; ``schedule`` a read demand schedule; ``combination`` the
     rule set's ultimate combination dict; ``web_shear_capacity`` the rule set's design web shear
-    capacity (N) of a beam; ``tie_kN`` a tie force for every end whose source gives none (kN).
+    capacity (N) of a beam; ``tie_kN`` a tie force for every end whose source gives none (kN);
+    ``reactions`` end reactions of a linked analysis model by ``(beam GlobalId, end)`` (V in N, text),
+    used by the ``model`` source where the beam's property gives no value.
     A joint no source covers maps to ``None`` and a warning (stage ``"demand"``) says, per source,
     what was missing. Method in the module docstring. Raises :class:`ConfigError` for a bad
     ``demand`` table or area-load entry.
     """
     res = resolve_demands_detailed(
         joints, members, config, n_per_force_unit=n_per_force_unit, schedule=schedule,
-        combination=combination, web_shear_capacity=web_shear_capacity, tie_kN=tie_kN)
+        combination=combination, web_shear_capacity=web_shear_capacity, tie_kN=tie_kN,
+        reactions=reactions)
     warnings = list(res.warnings)
     by_id = {j.id: j for j in joints}
     for jid, reason in res.missing.items():
@@ -162,6 +183,7 @@ def resolve_demands_detailed(
     combination: dict | None = None,
     web_shear_capacity: Callable[[Member], float | None] | None = None,
     tie_kN: float | None = None,
+    reactions: Mapping[tuple[str, str], tuple[float, str]] | None = None,
 ) -> DemandResolution:
     """As :func:`resolve_demands`, with the reasons for missing demands kept apart (``missing``)
     instead of added to the warnings, and the take-down for the report."""
@@ -218,20 +240,25 @@ def resolve_demands_detailed(
         for src in order:
             if src == "model":
                 key = str(d["start_shear"] if j.end == "start" else d["end_shear"])
-                if not key:
-                    reasons.append(f"model: demand.{j.end}_shear is not set")
-                    continue
-                V, why = model_shear(m, key, float(n_per_force_unit))
-                if V is None:
-                    reasons.append(f"model: {why}")
+                V, why = None, f"demand.{j.end}_shear is not set"
+                if key:
+                    V, why = model_shear(m, key, float(n_per_force_unit))
                     present = not why.startswith("the beam has no property")
-                    if present and (m.global_id, key) not in bad_props:  # there, but unusable
+                    if V is None and present and (m.global_id, key) not in bad_props:  # there, but unusable
                         bad_props.add((m.global_id, key))
                         warnings.append(DataWarning(why, m.global_id, "demand"))
-                    continue
-                found = Demand(V=V, N=tie_N, source="model",
-                               combination="as in the model's analysis results",
-                               detail=why + tie_note)
+                if V is None:
+                    linked = _linked_reaction(reactions, m.global_id, j.end)
+                    if linked is None:
+                        reasons.append(f"model: {why}" + ("; no linked analysis model reaction"
+                                                          if reactions else ""))
+                        continue
+                    found = Demand(V=linked[0], N=tie_N, source="model", combination=linked[1],
+                                   detail=f"linked analysis model reaction: {linked[1]}" + tie_note)
+                else:
+                    found = Demand(V=V, N=tie_N, source="model",
+                                   combination="as in the model's analysis results",
+                                   detail=why + tie_note)
             elif src == "schedule":
                 if schedule is None:
                     reasons.append("schedule: no demand schedule given")

@@ -253,6 +253,9 @@ class Frame:
     connections: tuple[ExplicitConnection, ...] = ()
     warnings: tuple[DataWarning, ...] = ()
     counts_by_class: Mapping[str, int] = field(default_factory=dict)
+    reactions: Mapping[tuple[str, str], tuple[float, str]] = field(default_factory=dict)
+    """End reactions from a linked structural analysis model: ``(beam GlobalId, "start" | "end")`` →
+    ``(V in N, text naming the reaction and its load combination)``; empty when there is none."""
 
 
 @dataclass(frozen=True)

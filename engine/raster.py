@@ -22,7 +22,7 @@ def _rgb(colour: str) -> tuple[int, int, int] | None:
     return (int(c[0:2], 16), int(c[2:4], 16), int(c[4:6], 16))
 
 
-def to_png(prims: Sequence[Prim], *, width_px: int = 800, height_px: int = 600) -> bytes:
+def to_png(prims: Sequence[Prim], *, width_px: int = 640, height_px: int = 480) -> bytes:
     """A PNG (bytes) of the primitives fitted into ``width_px`` × ``height_px`` on white."""
     from PIL import Image, ImageDraw, ImageFont
 
@@ -69,5 +69,5 @@ def to_png(prims: Sequence[Prim], *, width_px: int = 800, height_px: int = 600) 
         elif p.kind == "text":
             d.text(P(c[0], c[1]), p.label, fill=f or (0, 0, 0), font=font, anchor="ls")
     buf = io.BytesIO()
-    img.save(buf, format="PNG", optimize=False)
+    img.save(buf, format="PNG", optimize=False, compress_level=1)
     return buf.getvalue()

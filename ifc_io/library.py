@@ -44,8 +44,12 @@ def read_frame_with_connections(model: ifcopenshell.file, config: Mapping[str, A
     frame = read_frame(model, default_steel=grade, config=dict(config))
     if file_label:
         frame = dataclasses.replace(frame, file=file_label)
+    from ifc_io.read_analysis import read_linked_reactions
+
     conns, warns = read_explicit_connections(model)
-    return dataclasses.replace(frame, connections=tuple(conns), warnings=tuple(frame.warnings) + tuple(warns))
+    reactions, rwarns = read_linked_reactions(model, {m.global_id: m for m in frame.members})
+    return dataclasses.replace(frame, connections=tuple(conns), reactions=reactions,
+                               warnings=tuple(frame.warnings) + tuple(warns) + tuple(rwarns))
 
 
 def _schedule_kind(path: Path) -> str:
