@@ -206,7 +206,7 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
     import ifc_io
     from ifc_io.library import audit_model
     from ifc_io.write_bcf import bcf_archive
-    from ifc_io.write_psets import write_joint_psets
+    from ifc_io.write_psets_text import write_model_with_psets
 
     from engine.atomic import refuse_input_overwrite, write_all_atomic
     from engine.raster import to_png
@@ -230,7 +230,6 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
     project = model.by_type("IfcProject")
     bcf = bcf_archive(doc, version=bcf_version, project_guid=project[0].GlobalId if project else None,
                       project_name=(project[0].Name or "") if project else "", snapshots=snapshots)
-    write_joint_psets(model, doc, n_per_force_unit=outcome.frame.n_per_force_unit)
 
     out = _prepare_out_dir(out_dir)
     stem = Path(model_path).stem
@@ -245,11 +244,12 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
         refuse_input_overwrite(t, [model_path] + ([baseline_path] if baseline_path else []) + list(schedules))
     # all or nothing: every output is written to a temporary file before any is renamed into place
     write_all_atomic([
-        (targets["results"], json.dumps(doc, indent=2, ensure_ascii=False) + "\n"),
+        (targets["results"], _results_json(doc)),
         (targets["schedule"], schedule_csv(doc)),
         (targets["report"], html),
         (targets["bcf"], bcf),
-        (targets["ifc"], lambda tmp: model.write(tmp)),
+        (targets["ifc"], lambda tmp: write_model_with_psets(model, doc, tmp,
+                                                            n_per_force_unit=outcome.frame.n_per_force_unit)),
     ])
 
     s = doc["summary"]
@@ -263,6 +263,15 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
     if outcome.warnings:
         sys.stdout.write(f"  {len(outcome.warnings)} warnings (listed in results.json)\n")
     return 1 if s["fail"] or s["needs-design"] else 0
+
+
+def _results_json(doc: dict[str, Any]) -> str:
+    """results.json text: the document with one joint per line (readable, and fast to write for
+    large models, since each line goes through the C JSON encoder)."""
+    head = {k: v for k, v in doc.items() if k != "joints"}
+    joints = ",\n".join("  " + json.dumps(j, ensure_ascii=False) for j in doc["joints"])
+    text = json.dumps(head, indent=1, ensure_ascii=False)
+    return text[:-2] + ',\n "joints": [\n' + joints + "\n ]\n}\n"
 
 
 def _cmd_audit(args: argparse.Namespace) -> int:

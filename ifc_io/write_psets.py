@@ -25,7 +25,7 @@ from typing import Any, Iterable, Mapping
 import ifcopenshell
 import ifcopenshell.guid
 
-__all__ = ["PSET_BY_END", "PSET_NAMES", "write_joint_psets", "remove_joint_psets", "read_joint_psets"]
+__all__ = ["PSET_BY_END", "PSET_NAMES", "write_joint_psets", "remove_joint_psets", "read_joint_psets", "iter_joint_beams"]
 
 PSET_BY_END = {"start": "JointAudit_Start", "end": "JointAudit_End"}
 PSET_NAMES = frozenset(PSET_BY_END.values())
@@ -109,6 +109,20 @@ def _properties(joint: Mapping[str, Any], doc: Mapping[str, Any], n_per_force_un
     return [(n, t, v) for n, t, v in props if v is not None]
 
 
+def iter_joint_beams(model: ifcopenshell.file, doc: Mapping[str, Any], statuses: Iterable[str]):
+    """``(joint, beam entity, pset name)`` for each joint of ``doc`` whose status is in ``statuses``
+    and whose beam is in ``model``."""
+    wanted = set(statuses)
+    for joint in doc["joints"]:
+        if joint["status"] not in wanted:
+            continue
+        try:
+            beam = model.by_guid(joint["beam"])
+        except RuntimeError:
+            continue
+        yield joint, beam, PSET_BY_END[joint["end"]]
+
+
 def write_joint_psets(
     model: ifcopenshell.file,
     doc: Mapping[str, Any],
@@ -122,17 +136,9 @@ def write_joint_psets(
     ``n_per_force_unit`` is newtons per model force unit (``Frame.n_per_force_unit``). Returns the
     number of property sets written. Joints whose beam is not in the model are skipped.
     """
-    wanted = set(statuses)
     owner = _owner_history(model)
     written = 0
-    for joint in doc["joints"]:
-        if joint["status"] not in wanted:
-            continue
-        try:
-            beam = model.by_guid(joint["beam"])
-        except RuntimeError:
-            continue
-        pset_name = PSET_BY_END[joint["end"]]
+    for joint, beam, pset_name in iter_joint_beams(model, doc, statuses):
         for rel in _rels_of(beam):
             pset = rel.RelatingPropertyDefinition
             if pset.is_a("IfcPropertySet") and pset.Name == pset_name:

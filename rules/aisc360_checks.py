@@ -18,6 +18,7 @@ import math
 import numpy as np
 
 from engine.model import Check
+from rules.check_builders import TOL as _TOL, incomplete_check, make_check, make_max_check, make_min_check
 from rules.geometry import edge_distance_along
 
 __all__ = [
@@ -54,37 +55,11 @@ __all__ = [
     "tmax_extended",
 ]
 
-_TOL = 1e-9
 
 
 # ---------------------------------------------------------------------------------------------
 # Check constructors
 # ---------------------------------------------------------------------------------------------
-
-
-def make_check(name: str, clause: str, demand: float, capacity: float, unit: str, note: str = "") -> Check:
-    """A strength check: utilisation = demand / capacity, passes when ≤ 1."""
-    demand, capacity = float(demand), float(capacity)
-    if capacity > 0:
-        util = demand / capacity
-    else:
-        util = math.inf if demand > 0 else 0.0
-    return Check(name, clause, demand, capacity, unit, util, bool(util <= 1.0 + _TOL), note)
-
-
-def make_min_check(name: str, clause: str, required: float, provided: float, unit: str, note: str = "") -> Check:
-    """A minimum limit: demand = required minimum, capacity = provided, utilisation = min / provided."""
-    return make_check(name, clause, required, provided, unit, note)
-
-
-def make_max_check(name: str, clause: str, provided: float, limit: float, unit: str, note: str = "") -> Check:
-    """A maximum limit: demand = provided value, capacity = the limit."""
-    return make_check(name, clause, provided, limit, unit, note)
-
-
-def incomplete_check(name: str, clause: str, note: str, unit: str = "-") -> Check:
-    """A check that could not be made (data missing or outside the clause's validity range)."""
-    return Check(name, clause, 0.0, 0.0, unit, 0.0, False, note, incomplete=True)
 
 
 # ---------------------------------------------------------------------------------------------

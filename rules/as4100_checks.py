@@ -18,6 +18,7 @@ import math
 import numpy as np
 
 from engine.model import Check
+from rules.check_builders import incomplete_check, make_check, make_max_check, make_min_check
 
 __all__ = [
     "make_check",
@@ -40,36 +41,9 @@ __all__ = [
     "tee_Z_min",
 ]
 
-_TOL = 1e-9
 
 
 # ----------------------------------------------------------------------------- Check builders
-def make_check(name: str, clause: str, demand: float, capacity: float, unit: str, note: str = "") -> Check:
-    """A capacity check: ``utilisation = demand / capacity``; passes when ≤ 1.
-
-    A capacity that is not positive gives utilisation ``inf`` and a failed check.
-    """
-    demand = float(demand)
-    capacity = float(capacity)
-    util = demand / capacity if capacity > 0 else math.inf
-    return Check(name, clause, demand, capacity, unit, util, bool(util <= 1.0 + _TOL), note)
-
-
-def make_min_check(name: str, clause: str, required: float, provided: float, unit: str, note: str = "") -> Check:
-    """A minimum limit: ``demand`` = the required minimum, ``capacity`` = the value provided."""
-    return make_check(name, clause, required, provided, unit, note)
-
-
-def make_max_check(name: str, clause: str, provided: float, limit: float, unit: str, note: str = "") -> Check:
-    """A maximum limit: ``demand`` = the value provided, ``capacity`` = the limit."""
-    return make_check(name, clause, provided, limit, unit, note)
-
-
-def incomplete_check(name: str, clause: str, note: str, unit: str = "-") -> Check:
-    """A check that cannot be made (inputs missing or outside the validity range): not passed."""
-    return Check(name, clause, 0.0, 0.0, unit, 0.0, False, note, incomplete=True)
-
-
 # ----------------------------------------------------------------------------- bolts
 def kr_long_joint(lj: float, lj_short: float = 300.0, lj_long: float = 1300.0,
                   intercept: float = 1.075, divisor: float = 4000.0, kr_min: float = 0.75) -> float:
