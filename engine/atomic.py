@@ -1,6 +1,9 @@
 """Atomic output: write to a temporary file in the target folder, then rename over the target.
 
 A reader never sees a half-written output, and a failure leaves no partial file behind.
+:func:`write_all_atomic` does the same for a set of files: all are written to temporary files
+first and renamed only when every one of them has been written, so a failure leaves none of the
+new files behind.
 """
 
 from __future__ import annotations
@@ -8,11 +11,11 @@ from __future__ import annotations
 import os
 import tempfile
 from pathlib import Path
-from typing import Callable
+from typing import Callable, Sequence
 
 from engine.errors import OutputError
 
-__all__ = ["write_atomic", "write_atomic_with", "refuse_input_overwrite"]
+__all__ = ["write_atomic", "write_atomic_with", "write_all_atomic", "refuse_input_overwrite"]
 
 
 def refuse_input_overwrite(target: str | os.PathLike[str], inputs: list[str | os.PathLike[str]]) -> None:
@@ -49,8 +52,7 @@ def write_atomic_with(target: str | os.PathLike[str], writer: Callable[[str], No
     return target
 
 
-def write_atomic(target: str | os.PathLike[str], data: bytes | str) -> Path:
-    """Write ``data`` (bytes, or text as UTF-8) to ``target`` atomically."""
+def _bytes_writer(data: bytes | str) -> Callable[[str], None]:
     payload = data.encode("utf-8") if isinstance(data, str) else data
 
     def _write(tmp: str) -> None:
@@ -59,7 +61,60 @@ def write_atomic(target: str | os.PathLike[str], data: bytes | str) -> Path:
             fh.flush()
             os.fsync(fh.fileno())
 
-    return write_atomic_with(target, _write)
+    return _write
+
+
+def write_atomic(target: str | os.PathLike[str], data: bytes | str) -> Path:
+    """Write ``data`` (bytes, or text as UTF-8) to ``target`` atomically."""
+    return write_atomic_with(target, _bytes_writer(data))
+
+
+def write_all_atomic(
+    outputs: Sequence[tuple[str | os.PathLike[str], bytes | str | Callable[[str], None]]],
+) -> list[Path]:
+    """Write several files as one step: each ``(target, data_or_writer)`` goes to a temporary file
+    beside its target (``data`` bytes or text, or a ``writer(tmp_path)``), and only when all are
+    written are they renamed over their targets. If anything fails, the temporary files are
+    removed, and so are the targets already renamed that did not exist before; the error is an
+    :class:`OutputError`."""
+    targets = [Path(t) for t, _ in outputs]
+    for t in targets:
+        if t.is_dir():
+            raise OutputError(f"cannot write {t}: a folder of that name is in the way; remove it or choose "
+                              f"another --out folder")
+    temps: list[str] = []
+    try:
+        for t, what in outputs:
+            t = Path(t)
+            try:
+                fd, tmp = tempfile.mkstemp(prefix=f".{t.name}.", suffix=".part", dir=t.parent)
+            except OSError as exc:
+                raise OutputError(f"cannot write in {t.parent}: {exc.strerror or exc}") from None
+            os.close(fd)
+            temps.append(tmp)
+            writer = what if callable(what) else _bytes_writer(what)
+            try:
+                writer(tmp)
+            except OSError as exc:
+                raise OutputError(f"cannot write {t}: {exc.strerror or exc}") from None
+    except BaseException:
+        for tmp in temps:
+            _unlink(tmp)
+        raise
+    existed = [t.exists() for t in targets]
+    done: list[Path] = []
+    for i, (t, tmp) in enumerate(zip(targets, temps)):
+        try:
+            os.replace(tmp, t)
+        except OSError as exc:
+            for rest in temps[i:]:
+                _unlink(rest)
+            for d, was in zip(done, existed):
+                if not was:
+                    _unlink(str(d))
+            raise OutputError(f"cannot write {t}: {exc.strerror or exc}") from None
+        done.append(t)
+    return done
 
 
 def _unlink(path: str) -> None:

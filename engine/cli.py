@@ -228,8 +228,10 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
     snapshots = {r.joint.id: to_png(elevation_for(r, outcome.members[r.joint.beam]))
                  for r in outcome.results if r.joint.id in drawings and r.connection is not None}
     project = model.by_type("IfcProject")
-    bcf = bcf_archive(doc, version=bcf_version, project_guid=project[0].GlobalId if project else None,
-                      project_name=(project[0].Name or "") if project else "", snapshots=snapshots)
+    # a damaged file may hold something other than text in the project's GlobalId or Name
+    guid, name = (project[0].GlobalId, project[0].Name) if project else (None, "")
+    bcf = bcf_archive(doc, version=bcf_version, project_guid=guid if isinstance(guid, str) else None,
+                      project_name=name if isinstance(name, str) else "", snapshots=snapshots)
 
     out = _prepare_out_dir(out_dir)
     stem = Path(model_path).stem

@@ -58,6 +58,11 @@ DEFAULT_ELECTRODE_BY_CODE: dict[str, str] = {"as4100": "E48XX", "en1993": "S275"
 """Weld electrode assumed where the model does not say (EN 1993-1-8 4.5.3.3 works from the parent
 metal's fu and βw, so the EN entry names the weaker parent grade)."""
 
+MAX_TOLERANCE_MM = 10_000.0
+"""Largest joint tolerance in mm a config may set (10 m; the defaults are tens of mm)."""
+MAX_WELD_LEG_MM = 100.0
+"""Largest assumed fillet weld leg a config may set."""
+
 _AREA_LOAD_KEYS = {"storey": str, "dead_kPa": (int, float), "live_kPa": (int, float)}
 _DEMAND_SOURCES = ("model", "schedule", "tributary", "capacity-fraction")
 _POLICIES = ("conservative", "classified", "envelope")
@@ -104,6 +109,16 @@ def _validate(cfg: dict[str, Any], where: str) -> None:
     for key, value in cfg["tolerances"].items():
         if value < 0:
             raise ConfigError(f"{where}: 'tolerances.{key}' must not be negative")
+        if key.endswith("_mm") and value > MAX_TOLERANCE_MM:
+            raise ConfigError(f"{where}: 'tolerances.{key}' is {value:g} mm; a joint tolerance must be at most "
+                              f"{MAX_TOLERANCE_MM:g} mm (beyond it unrelated members would be joined)")
+    if not isinstance(cfg["demand"]["order"], list) or not cfg["demand"]["order"]:
+        raise ConfigError(f"{where}: 'demand.order' is empty; name at least one source of the end shear "
+                          f"({', '.join(_DEMAND_SOURCES)})")
+    leg = cfg["connections"]["weld_leg_mm"]
+    if not 0.0 < leg <= MAX_WELD_LEG_MM:
+        raise ConfigError(f"{where}: 'connections.weld_leg_mm' is {leg}; it must be more than 0 and at most "
+                          f"{MAX_WELD_LEG_MM:g} mm")
     for i, entry in enumerate(cfg["demand"]["area_loads"]):
         key = f"demand.area_loads[{i}]"
         if not isinstance(entry, dict):
@@ -146,6 +161,10 @@ def load_config(path: str | Path | None = None, overrides: dict[str, Any] | None
             raise ConfigError(f"{where}: not a UTF-8 text file") from None
         except tomllib.TOMLDecodeError as exc:
             raise ConfigError(f"{where}: not valid TOML ({exc})") from None
+        except RecursionError:
+            raise ConfigError(f"{where}: not valid TOML (nested too deeply)") from None
+        except OSError as exc:
+            raise ConfigError(f"{where}: cannot be read ({exc.strerror or exc})") from None
         _check_types(data, DEFAULTS, where, "")
         cfg = merge_config(cfg, data)
     if overrides:

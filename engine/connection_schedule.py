@@ -47,25 +47,39 @@ _OPTIONAL = ("plate_grade", "threads_in_shear_plane", "hole", "weld_both_sides",
 REQUIRED = ("match", "value", "end") + _NUM + _INT + _STR
 _HOLES = ("standard", "oversize", "short-slot", "long-slot")
 _INCH = re.compile(r"^(?:(\d+)[- ])?(\d+)/(\d+)$|^(\d+(?:\.\d+)?)$")
+_POSITIVE = ("plate_thickness", "plate_depth", "plate_width")
+MAX_DIMENSION_MM = 10_000.0
+"""No fin plate dimension, pitch, gauge or edge distance exceeds this (10 m): a larger value is a
+unit or typing error."""
+MAX_ROWS, MAX_LINES = 100, 10
+"""Bolt rows and lines a schedule entry may give (far beyond any fin plate; the bound keeps a
+typing error from building a bolt group of millions of bolts)."""
+MAX_BOLT_DIAMETER_MM = 100.0
+"""Largest nominal bolt diameter accepted (structural bolts stop well below it)."""
 
 
 def bolt_diameter_mm(size: str) -> float:
     """Nominal bolt diameter in mm from the size as the trade writes it: ``"M20"`` → 20,
     ``"3/4"`` → 19.05, ``"1-1/8"`` → 28.575, ``"1"`` → 25.4. Raises :class:`BadInputError`."""
     s = size.strip()
+    d: float | None = None
     if s[:1] in ("M", "m"):
-        try:
-            return float(s[1:])
-        except ValueError:
-            pass
+        if re.fullmatch(r"\d+(?:\.\d+)?", s[1:].strip()):
+            d = float(s[1:])
     else:
         m = _INCH.match(s.replace('"', "").replace("in", "").strip())
         if m:
             if m.group(4):
-                return float(m.group(4)) * 25.4
-            whole = float(m.group(1) or 0)
-            return (whole + float(m.group(2)) / float(m.group(3))) * 25.4
-    raise BadInputError(f"bolt size {size!r} is not a metric size like 'M20' or an inch size like '3/4'")
+                d = float(m.group(4)) * 25.4
+            elif float(m.group(3)) > 0:
+                whole = float(m.group(1) or 0)
+                d = (whole + float(m.group(2)) / float(m.group(3))) * 25.4
+    if d is None:
+        raise BadInputError(f"bolt size {size!r} is not a metric size like 'M20' or an inch size like '3/4'")
+    if not 0.0 < d <= MAX_BOLT_DIAMETER_MM:
+        raise BadInputError(f"bolt size {size!r} gives a diameter of {d:g} mm; it must be more than 0 and "
+                            f"at most {MAX_BOLT_DIAMETER_MM:g} mm")
+    return d
 
 
 @dataclass(frozen=True)
@@ -171,13 +185,23 @@ def _entry(raw: Mapping[str, Any], where: str) -> ScheduleEntry:
             raise BadInputError(f"{where}: '{k}' must be a number in mm, not {raw[k]!r}") from None
         if not fields[k] >= 0 or fields[k] == float("inf"):
             raise BadInputError(f"{where}: '{k}' must be a finite number >= 0, not {raw[k]!r}")
-    for k in _INT:
+        if fields[k] > MAX_DIMENSION_MM:
+            raise BadInputError(f"{where}: '{k}' is {fields[k]:g} mm, more than {MAX_DIMENSION_MM:g} mm "
+                                f"(a unit or typing error?)")
+        if k in _POSITIVE and fields[k] == 0:
+            raise BadInputError(f"{where}: '{k}' must be more than 0 mm")
+    for k, most in zip(_INT, (MAX_ROWS, MAX_LINES)):
         try:
             fields[k] = int(str(raw[k]).strip())
         except ValueError:
             raise BadInputError(f"{where}: '{k}' must be a whole number, not {raw[k]!r}") from None
         if fields[k] < 1:
             raise BadInputError(f"{where}: '{k}' must be at least 1")
+        if fields[k] > most:
+            raise BadInputError(f"{where}: '{k}' is {fields[k]}; a fin plate has at most {most}")
+    for k, n in (("pitch", "rows"), ("gauge", "lines")):
+        if fields[n] > 1 and fields[k] <= 0:
+            raise BadInputError(f"{where}: '{k}' must be more than 0 mm when there is more than one of '{n}'")
     for k in _STR:
         fields[k] = str(raw[k]).strip()
     try:
@@ -216,6 +240,8 @@ def read_connection_schedule(path: str | Path) -> ConnectionSchedule:
             data = tomllib.loads(text)
         except tomllib.TOMLDecodeError as exc:
             raise BadInputError(f"schedule {p}: not valid TOML ({exc})") from None
+        except RecursionError:
+            raise BadInputError(f"schedule {p}: not valid TOML (nested too deeply)") from None
         rows = data.get("connection")
         if not isinstance(rows, list) or set(data) - {"connection"}:
             raise BadInputError(f"schedule {p}: expected only [[connection]] tables")

@@ -201,6 +201,8 @@ def parse_demand_toml(text: str, where: str) -> list[ScheduleRow]:
         data = tomllib.loads(text)
     except tomllib.TOMLDecodeError as exc:
         raise BadInputError(f"{where}: not valid TOML ({exc})") from None
+    except RecursionError:
+        raise BadInputError(f"{where}: not valid TOML (nested too deeply)") from None
     for key in data:
         if key != "demand":
             raise BadInputError(f"{where}: unknown key {key!r} (a demand schedule holds [[demand]] tables)")
@@ -237,8 +239,8 @@ def _number(text: str, column: str, where: str, line: int) -> float:
         value = float(text)
     except ValueError:
         raise BadInputError(f"{where} line {line}: {column} {text!r} is not a number") from None
-    if not math.isfinite(value):
-        raise BadInputError(f"{where} line {line}: {column} {text!r} is not a finite number")
+    if not math.isfinite(value) or not math.isfinite(value * 1e3):
+        raise BadInputError(f"{where} line {line}: {column} {text!r} is not a finite number of kN")
     return abs(value)
 
 

@@ -162,8 +162,14 @@ def results_document(
         "summary": summary,
         "joints": joints,
         "baseline_removed": list(removed),
-        "warnings": [{"global_id": getattr(w, "global_id", None), "message": str(getattr(w, "message", w))} for w in warnings],
+        "warnings": [{"global_id": _gid(getattr(w, "global_id", None)), "message": str(getattr(w, "message", w))}
+                     for w in warnings],
     }
+
+
+def _gid(value: Any) -> str | None:
+    """A warning's GlobalId as results.json writes it: text or null (never another object)."""
+    return value if isinstance(value, str) or value is None else None
 
 
 def read_baseline(path: str | Path) -> dict[str, dict[str, Any]]:
@@ -173,8 +179,12 @@ def read_baseline(path: str | Path) -> dict[str, dict[str, Any]]:
         raise BadInputError(f"baseline {p} does not exist or is not a file")
     try:
         doc = json.loads(p.read_text(encoding="utf-8"))
-    except (UnicodeDecodeError, json.JSONDecodeError) as exc:
+    except (UnicodeDecodeError, ValueError) as exc:  # JSONDecodeError, and over-long integers
         raise BadInputError(f"baseline {p} is not a joint-audit results.json ({exc})") from None
+    except RecursionError:
+        raise BadInputError(f"baseline {p} is not a joint-audit results.json (nested too deeply)") from None
+    except OSError as exc:
+        raise BadInputError(f"baseline {p} cannot be read: {exc.strerror or exc}") from None
     if not isinstance(doc, dict) or not isinstance(doc.get("joints"), list):
         raise BadInputError(f"baseline {p} is not a joint-audit results.json (no 'joints' list)")
     out: dict[str, dict[str, Any]] = {}

@@ -10,11 +10,12 @@ from __future__ import annotations
 
 import os
 import re
+import weakref
 from pathlib import Path
 
 from engine.errors import BadInputError, UnsupportedSchemaError
 
-__all__ = ["SUPPORTED_SCHEMAS", "open_model", "check_ifc_file", "normalise_schema"]
+__all__ = ["SUPPORTED_SCHEMAS", "open_model", "check_ifc_file", "normalise_schema", "parse_problems"]
 
 SUPPORTED_SCHEMAS: tuple[str, ...] = ("IFC2X3", "IFC4", "IFC4X3")
 """The schema families joint-audit reads (IFC4X3 includes its addenda, e.g. IFC4X3_ADD2)."""
@@ -24,6 +25,8 @@ _TAIL_BYTES = 4096
 _SCHEMA_RE = re.compile(rb"FILE_SCHEMA\s*\(\s*\(\s*'([^']*)'", re.IGNORECASE)
 _COMMENT_RE = re.compile(rb"/\*.*?\*/", re.DOTALL)
 _END_RE = re.compile(rb"END-ISO-10303-21\s*;\s*\Z", re.IGNORECASE)
+_LOG_LINE = re.compile(r"^\[(?:error|warning)\]\s*((?:\[[^\]]*\]\s*)*)(.*)$", re.IGNORECASE)
+_PARSE_PROBLEMS: "weakref.WeakKeyDictionary[object, tuple[str, ...]]" = weakref.WeakKeyDictionary()
 
 
 def normalise_schema(identifier: str) -> str | None:
@@ -119,14 +122,44 @@ def open_model(path: str | os.PathLike):
     family = check_ifc_file(path)
     import ifcopenshell
 
+    _take_log(ifcopenshell)  # drop what was logged before this file
     try:
         model = ifcopenshell.open(str(path))
     except Exception as exc:  # IfcOpenShell raises several types (RuntimeError, IOError, its own)
         detail = str(exc).strip().splitlines()[0] if str(exc).strip() else type(exc).__name__
+        _take_log(ifcopenshell)
         raise BadInputError(f"{path} could not be parsed as {family}: {detail}") from exc
+    problems = _take_log(ifcopenshell)
+    if problems:
+        _PARSE_PROBLEMS[model] = problems
     got = normalise_schema(getattr(model, "schema_identifier", None) or model.schema)
     if got is None:
         raise UnsupportedSchemaError(
             f"{path} opened as schema {model.schema!r}; joint-audit reads {', '.join(SUPPORTED_SCHEMAS)}"
         )
     return model
+
+
+def _take_log(ifcopenshell) -> tuple[str, ...]:
+    """The errors and warnings IfcOpenShell logged since the last call (reading clears its log),
+    without their time stamps."""
+    get_log = getattr(ifcopenshell, "get_log", None)
+    if get_log is None:
+        return ()
+    out: list[str] = []
+    for line in str(get_log() or "").splitlines():
+        m = _LOG_LINE.match(line.strip())
+        if m and m.group(2).strip():
+            out.append(m.group(2).strip())
+    return tuple(out)
+
+
+def parse_problems(model) -> tuple[str, ...]:
+    """What IfcOpenShell reported while :func:`open_model` parsed ``model``: entities it could not
+    read, references to entities that are not in the file, instance names used twice. Empty for
+    a clean file or a model opened elsewhere. The parser skips what it cannot read, so a model
+    with problems opens but misses data."""
+    try:
+        return _PARSE_PROBLEMS.get(model, ())
+    except TypeError:  # not weak-referenceable: not opened here
+        return ()

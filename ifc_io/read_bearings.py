@@ -12,7 +12,7 @@ import numpy as np
 
 from engine.model import Bearing
 from ifc_io.read_axes import read_geometry, solid_corners
-from ifc_io.read_geometry import apply
+from ifc_io.read_geometry import MAX_COORDINATE_MM, apply, text_value
 
 __all__ = ["BEARING_CLASSES", "read_bearings", "world_box"]
 
@@ -50,7 +50,10 @@ def read_bearings(ctx) -> list[Bearing]:
             if el.id() in seen:
                 continue
             seen.add(el.id())
-            gid = el.GlobalId
+            gid = text_value(el.GlobalId)
+            if not gid.strip():
+                ctx.warn(f"{el.is_a()} #{el.id()} has no GlobalId; not used as a bearing", None)
+                continue
             try:
                 box = world_box(el, ctx)
             except Exception as exc:  # one bad element never stops the read
@@ -61,10 +64,15 @@ def read_bearings(ctx) -> list[Bearing]:
                 ctx.warn(f"{el.is_a()} has no swept solid, brep or box to bound it; not used as a bearing", gid)
                 continue
             lo, hi = box
+            if not (np.all(np.isfinite(lo)) and np.all(np.isfinite(hi))
+                    and max(np.abs(lo).max(), np.abs(hi).max()) * mm <= MAX_COORDINATE_MM):
+                ctx.warn(f"{el.is_a()}: its body is not finite or lies beyond {MAX_COORDINATE_MM:g} mm from "
+                         f"the origin (corrupt placement or geometry); not used as a bearing", gid)
+                continue
             out.append(Bearing(
                 global_id=gid,
                 ifc_class=el.is_a(),
-                name=el.Name or "",
+                name=text_value(el.Name),
                 bbox_min=tuple(float(x) * mm for x in lo),
                 bbox_max=tuple(float(x) * mm for x in hi),
                 storey=ctx.index.storey_name(el),

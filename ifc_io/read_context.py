@@ -22,7 +22,8 @@ class ReadContext:
     _bbox: dict[int, object] = field(default_factory=dict)
 
     def warn(self, message: str, global_id: str | None = None) -> None:
-        self.warnings.append(DataWarning(message, global_id, "read"))
+        # a damaged file may hold something other than text where the GlobalId belongs
+        self.warnings.append(DataWarning(message, global_id if isinstance(global_id, str) else None, "read"))
 
     def bbox(self, profile):
         """:func:`profile_bbox`, cached per profile entity."""

@@ -28,6 +28,8 @@ from typing import Iterator
 import numpy as np
 
 __all__ = [
+    "MAX_COORDINATE_MM",
+    "text_value",
     "IDENTITY",
     "Mat",
     "mul",
@@ -54,6 +56,16 @@ __all__ = [
 
 Mat = tuple  # 12 floats, see the module docstring
 IDENTITY: Mat = (1.0, 0.0, 0.0, 0.0, 0.0, 1.0, 0.0, 0.0, 0.0, 0.0, 1.0, 0.0)
+
+MAX_COORDINATE_MM = 1e11
+"""A point farther than this from the model's origin (100 000 km, beyond any coordinate on Earth)
+is corrupt data: the readers skip the element with a warning."""
+
+
+def text_value(value) -> str:
+    """A string attribute (Name, Tag, GlobalId, ...) as text; ``""`` where a damaged file holds
+    something else there (a number, a reference to another entity)."""
+    return value if isinstance(value, str) else ""
 
 
 def mul(a: Mat, b: Mat) -> Mat:
@@ -132,8 +144,17 @@ def _make_arg():
         import ifcopenshell
 
         getter = getattr(ifcopenshell.entity_instance, "get_argument", None)
-        if getter is not None:  # IfcOpenShell 0.8.1+: the wrapper's own accessor, no Python frame
-            return getter
+        if getter is not None:  # IfcOpenShell 0.8.1+: the wrapper's own accessor
+
+            def arg(entity, i: int, _get=getter):
+                # the wrapper crashes the interpreter (segmentation fault) when given None, which is
+                # what a reference to an entity missing from a damaged file reads as
+                if entity is None:
+                    raise TypeError(f"attribute {i} of a missing entity (a reference to an entity that "
+                                    f"is not in the file)")
+                return _get(entity, i)
+
+            return arg
     except ImportError:  # pragma: no cover - ifc_io always has ifcopenshell
         pass
     return lambda e, i: e[i]

@@ -104,7 +104,7 @@ def _read_select(select, index) -> tuple[tuple[str, ...], tuple, int | None]:
         profiles_l: list = []
         cardinal = _walk(select, labels_l, profiles_l)
         seen: set[str] = set()
-        labels = tuple(x for x in labels_l if x and not (x in seen or seen.add(x)))
+        labels = tuple(x for x in labels_l if x and isinstance(x, str) and not (x in seen or seen.add(x)))
         hit = (labels, tuple(profiles_l), cardinal)
     index.material_cache[key] = hit
     return hit

@@ -25,12 +25,13 @@ import math
 
 from engine.model import Member, Section
 from ifc_io.read_axes import member_axis, read_geometry, tessellated_axis
-from ifc_io.read_geometry import arg
+from ifc_io.read_geometry import MAX_COORDINATE_MM, arg, text_value
 from ifc_io.read_materials import material_info
 from ifc_io.read_profiles import cardinal_offset, profile_name, section_from_profile
 from rules.catalog import lookup_section
 
-__all__ = ["member_role", "read_members", "MIN_AXIS_LENGTH_MM", "ROLE_ANGLE_DEG", "AXIS_OFF_BODY_MM"]
+__all__ = ["member_role", "read_members", "MIN_AXIS_LENGTH_MM", "ROLE_ANGLE_DEG", "AXIS_OFF_BODY_MM",
+           "MAX_COORDINATE_MM", "MAX_AXIS_LENGTH_MM"]
 
 MIN_AXIS_LENGTH_MM = 0.01
 """An axis shorter than this is zero-length: the member is skipped with a warning."""
@@ -38,6 +39,8 @@ ROLE_ANGLE_DEG = 10.0
 """An untyped IfcMember within this angle of horizontal is a beam, of vertical ``other``."""
 AXIS_OFF_BODY_MM = 10.0
 """An Axis farther than this outside the body's section box gets a warning (it is still used)."""
+MAX_AXIS_LENGTH_MM = 1e6
+"""A member axis longer than this (1 km) is a modelling or unit error: skipped with a warning."""
 
 _BRACE_TYPES = {"BRACE", "STRUT", "TIEBAR", "STAY_CABLE", "SUSPENSION_CABLE", "SUSPENDER", "CABLE"}
 _COLUMN_TYPES = {"POST", "STUD"}
@@ -89,8 +92,8 @@ def _name_candidates(el, index, profile) -> list[str]:
         raw.append(profile_name(profile))
     t = index.element_type(el)
     if t is not None:
-        raw.append(t.Name or "")
-    raw.extend([getattr(el, "ObjectType", None) or "", el.Name or ""])
+        raw.append(text_value(t.Name))
+    raw.extend([text_value(getattr(el, "ObjectType", None)), text_value(el.Name)])
     out: list[str] = []
     for s in raw:
         s = (s or "").strip()
@@ -186,11 +189,14 @@ def read_members(ctx, steel_resolver, properties: tuple[str, ...] = ()) -> list[
 
 def _read_member(el, ctx, cache, steel_resolver, properties) -> Member | None:
     # IfcElement attributes by position (the same in IFC2X3, IFC4, IFC4X3): GlobalId 0, Name 2, Tag 7
-    gid = arg(el, 0)
+    gid = text_value(arg(el, 0))
     cls = el.is_a()
-    name, tag = arg(el, 2) or "", arg(el, 7) or ""
+    name, tag = text_value(arg(el, 2)), text_value(arg(el, 7))
     label = tag or name
     who = f"{cls} {label!r}" if label else cls
+    if not gid.strip():
+        ctx.warn(f"{who} (#{el.id()}) has no GlobalId; member skipped (repair the model)", None)
+        return None
     try:
         geom = read_geometry(el, ctx.index, ctx.resolver)
     except ValueError as exc:  # an unresolvable placement
@@ -219,7 +225,15 @@ def _read_member(el, ctx, cache, steel_resolver, properties) -> Member | None:
     if axis.note:
         ctx.warn(f"{who}: {axis.note}", gid)
     start, end = _vec(axis.start, scale), _vec(axis.end, scale)
+    if not all(math.isfinite(c) and abs(c) <= MAX_COORDINATE_MM for c in start + end):
+        ctx.warn(f"{who}: axis end coordinates are not finite or lie more than {MAX_COORDINATE_MM:g} mm "
+                 f"from the origin (corrupt placement or geometry); member skipped", gid)
+        return None
     length = math.dist(start, end)
+    if length > MAX_AXIS_LENGTH_MM:
+        ctx.warn(f"{who}: axis is {length / 1e6:.3g} km long, longer than any building member "
+                 f"(a modelling or unit error); member skipped", gid)
+        return None
     if length < MIN_AXIS_LENGTH_MM:
         ctx.warn(f"{who}: zero-length axis at {tuple(round(c, 1) for c in start)} mm; member skipped", gid)
         return None
@@ -231,6 +245,10 @@ def _read_member(el, ctx, cache, steel_resolver, properties) -> Member | None:
     offset = None
     if axis.axis_offset is not None:
         offset = tuple(round(float(v) * scale, 3) + 0.0 for v in axis.axis_offset)
+        if not all(math.isfinite(c) and abs(c) <= MAX_COORDINATE_MM for c in offset):
+            ctx.warn(f"{who}: the offset of its axis from the body is not finite or lies more than "
+                     f"{MAX_COORDINATE_MM:g} mm away (corrupt placement or geometry); member skipped", gid)
+            return None
         if (axis.source == "axis" and geom.solid is not None and section.width and section.depth
                 and (abs(offset[0]) > section.width / 2 + AXIS_OFF_BODY_MM
                      or abs(offset[1]) > section.depth / 2 + AXIS_OFF_BODY_MM)):
@@ -256,7 +274,7 @@ def _read_member(el, ctx, cache, steel_resolver, properties) -> Member | None:
         tag=tag,
         storey=ctx.index.storey_name(el),
         predefined_type=predefined,
-        web_dir=_vec(axis.web_dir) if axis.web_dir is not None else None,
+        web_dir=_vec(axis.web_dir) if axis.web_dir is not None and all(map(math.isfinite, _vec(axis.web_dir))) else None,
         cardinal_point=info.cardinal_point,
         axis_offset=offset,
         axis_source=axis.source,

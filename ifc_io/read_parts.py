@@ -22,10 +22,11 @@ the host of an opening it fills, the element it is aggregated into, the members 
 
 from __future__ import annotations
 
+import math
 
 from engine.model import ConnectionPart
 from ifc_io.read_axes import read_geometry, solid_corners
-from ifc_io.read_geometry import IDENTITY, add, apply, apply_dir, column, mul, norm, scale, sub, unit
+from ifc_io.read_geometry import IDENTITY, MAX_COORDINATE_MM, text_value, add, apply, apply_dir, column, mul, norm, scale, sub, unit
 from ifc_io.read_materials import material_info
 
 __all__ = ["PART_CLASSES", "MEMBER_CLASSES", "read_parts"]
@@ -160,10 +161,12 @@ def _part_properties(el, mm: float) -> dict[str, object]:
             if not prop.is_a("IfcPropertySingleValue") or prop.NominalValue is None:
                 continue
             v = prop.NominalValue
-            value = v.wrappedValue
+            value = getattr(v, "wrappedValue", None)
+            if not isinstance(value, (str, int, float, bool)):
+                continue
             if v.is_a() in _LENGTH_MEASURES and isinstance(value, (int, float)):
                 value = float(value) * mm
-            out[f"{pset.Name}.{prop.Name}"] = value
+            out[f"{text_value(pset.Name)}.{text_value(prop.Name)}"] = value
     return out
 
 
@@ -191,16 +194,34 @@ def read_parts(ctx) -> list[ConnectionPart]:
             seen.add(el.id())
             kind = next(k for c, k in PART_CLASSES if el.is_a(c))
             try:
-                parts.append(_read_part(el, kind, ctx))
+                part = _read_part(el, kind, ctx)
             except Exception as exc:  # one bad part never stops the read
                 ctx.warn(f"{el.is_a()} could not be read ({type(exc).__name__}: {exc}); skipped",
                          getattr(el, "GlobalId", None))
+                continue
+            if not _plausible(part):
+                ctx.warn(f"{el.is_a()}: its placement or size is not finite or lies beyond "
+                         f"{MAX_COORDINATE_MM:g} mm (corrupt placement or geometry); skipped", part.global_id)
+                continue
+            parts.append(part)
     return parts
+
+
+def _plausible(part: ConnectionPart) -> bool:
+    """Are the part's placement and sizes finite numbers of a size a building can hold?"""
+    values = [*part.origin, *part.x_dir, *part.y_dir, *part.z_dir, *part.dims.values()]
+    values += [v for v in (part.nominal_diameter, part.nominal_length) if v is not None]
+    try:
+        return all(math.isfinite(float(v)) and abs(float(v)) <= MAX_COORDINATE_MM for v in values)
+    except (TypeError, ValueError):
+        return False
 
 
 def _read_part(el, kind: str, ctx) -> ConnectionPart:
     index, mm = ctx.index, ctx.mm
-    gid = el.GlobalId
+    gid = text_value(el.GlobalId)
+    if not gid.strip():
+        raise ValueError("it has no GlobalId")
     try:
         m = ctx.resolver.matrix(el.ObjectPlacement)
     except ValueError as exc:
@@ -224,7 +245,7 @@ def _read_part(el, kind: str, ctx) -> ConnectionPart:
     hosts: list[str] = []
 
     def add(host):
-        hid = getattr(host, "GlobalId", None)
+        hid = text_value(getattr(host, "GlobalId", None))
         if hid and hid != gid and hid not in hosts:
             hosts.append(hid)
 
@@ -241,8 +262,8 @@ def _read_part(el, kind: str, ctx) -> ConnectionPart:
         global_id=gid,
         ifc_class=el.is_a(),
         kind=kind,
-        name=el.Name or "",
-        tag=getattr(el, "Tag", None) or "",
+        name=text_value(el.Name),
+        tag=text_value(getattr(el, "Tag", None)),
         predefined_type=_predefined(el, index),
         origin=_vec(scale(column(m, 3), mm)),
         x_dir=_vec(unit(column(m, 0))),
@@ -252,7 +273,7 @@ def _read_part(el, kind: str, ctx) -> ConnectionPart:
         nominal_diameter=nd,
         nominal_length=nl,
         material=info.labels[0] if info.labels else "",
-        assembly=assembly.GlobalId if assembly is not None and assembly.id() != el.id() else None,
+        assembly=(text_value(assembly.GlobalId) or None) if assembly is not None and assembly.id() != el.id() else None,
         hosts=tuple(hosts),
         storey=index.storey_name(el),
         properties=_part_properties(el, mm) if kind in ("plate", "fastener") else {},

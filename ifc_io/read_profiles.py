@@ -39,7 +39,8 @@ _FILLET_C = (10.0 - 3.0 * math.pi) / (12.0 - 3.0 * math.pi)  # fillet centroid /
 
 def profile_name(profile) -> str:
     """The profile's ProfileName ('' when absent); a derived profile falls back on its parent's."""
-    name = (getattr(profile, "ProfileName", None) or "").strip()
+    name = getattr(profile, "ProfileName", None)
+    name = name.strip() if isinstance(name, str) else ""
     if not name and profile.is_a("IfcDerivedProfileDef"):
         return profile_name(profile.ParentProfile)
     return name

@@ -13,9 +13,22 @@ from __future__ import annotations
 
 from collections import defaultdict
 
-from ifc_io.read_geometry import arg
+from ifc_io.read_geometry import arg, text_value
 
 __all__ = ["RelationIndex"]
+
+
+def _entity(x) -> bool:
+    """Is ``x`` an entity instance? A damaged file can leave ``None`` (a dangling reference) or a
+    plain value where a relationship expects an entity; such links are ignored."""
+    return x is not None and hasattr(x, "id") and hasattr(x, "is_a")
+
+
+def _entities(seq) -> list:
+    """The entity instances of an aggregate attribute (``None`` or a non-list gives none)."""
+    if not isinstance(seq, (tuple, list)):
+        return []
+    return [x for x in seq if _entity(x)]
 
 
 def _by_type(model, cls: str):
@@ -47,39 +60,49 @@ class RelationIndex:
         # IFC4 and IFC4X3) keep this pass cheap on large models.
         for rel in _by_type(model, "IfcRelContainedInSpatialStructure"):
             structure = arg(rel, 5)  # RelatingStructure
-            for el in arg(rel, 4) or ():  # RelatedElements
+            if not _entity(structure):
+                continue
+            for el in _entities(arg(rel, 4)):  # RelatedElements
                 self.container.setdefault(el.id(), structure)
         for rel in _by_type(model, "IfcRelAggregates"):
             whole = arg(rel, 4)  # RelatingObject
-            for part in arg(rel, 5) or ():  # RelatedObjects
+            if not _entity(whole):
+                continue
+            for part in _entities(arg(rel, 5)):  # RelatedObjects
                 self.parent.setdefault(part.id(), whole)
                 self.children[whole.id()].append(part)
         for rel in _by_type(model, "IfcRelDefinesByType"):
             t = arg(rel, 5)  # RelatingType
-            for obj in arg(rel, 4) or ():  # RelatedObjects
+            if not _entity(t):
+                continue
+            for obj in _entities(arg(rel, 4)):  # RelatedObjects
                 self.type_of.setdefault(obj.id(), t)
         for rel in _by_type(model, "IfcRelAssociatesMaterial"):
             mat = arg(rel, 5)  # RelatingMaterial
-            for obj in arg(rel, 4) or ():  # RelatedObjects
+            if not _entity(mat):
+                continue
+            for obj in _entities(arg(rel, 4)):  # RelatedObjects
                 self.material.setdefault(obj.id(), mat)
         for rel in _by_type(model, "IfcRelConnectsElements"):
             a, b = rel.RelatingElement, rel.RelatedElement
-            if a is None or b is None:
+            if not (_entity(a) and _entity(b)):
                 continue
             self.connected[a.id()].append(b)
             self.connected[b.id()].append(a)
-            for r in getattr(rel, "RealizingElements", None) or ():
+            for r in _entities(getattr(rel, "RealizingElements", None)):
                 self.connected[r.id()].extend((a, b))
         for rel in _by_type(model, "IfcRelVoidsElement"):
-            if rel.RelatedOpeningElement is not None and rel.RelatingBuildingElement is not None:
+            if _entity(rel.RelatedOpeningElement) and _entity(rel.RelatingBuildingElement):
                 self.opening_host[rel.RelatedOpeningElement.id()] = rel.RelatingBuildingElement
         for rel in _by_type(model, "IfcRelFillsElement"):
-            if rel.RelatedBuildingElement is not None and rel.RelatingOpeningElement is not None:
+            if _entity(rel.RelatedBuildingElement) and _entity(rel.RelatingOpeningElement):
                 self.filled_opening[rel.RelatedBuildingElement.id()].append(rel.RelatingOpeningElement)
         if with_properties:
             for rel in _by_type(model, "IfcRelDefinesByProperties"):
                 pdef = rel.RelatingPropertyDefinition
-                for obj in rel.RelatedObjects or ():
+                if not _entity(pdef):
+                    continue
+                for obj in _entities(rel.RelatedObjects):
                     self.psets[obj.id()].append(pdef)
 
     # ------------------------------------------------------------------------------------
@@ -112,7 +135,7 @@ class RelationIndex:
                 sid = struct.id()
                 name = self._storey_names.get(sid)
                 if name is None:
-                    name = self._storey_names[sid] = (struct.Name or getattr(struct, "LongName", None) or "").strip()
+                    name = self._storey_names[sid] = (text_value(struct.Name) or text_value(getattr(struct, "LongName", None))).strip()
                 break
             struct = self.parent.get(struct.id()) or self.container.get(struct.id())
         self._storey_cache[key] = name
@@ -143,12 +166,13 @@ class RelationIndex:
         sources = list(self.psets.get(element.id(), ()))
         t = self.element_type(element)
         if t is not None:
-            sources += list(getattr(t, "HasPropertySets", None) or ())
+            sources += _entities(getattr(t, "HasPropertySets", None))
         for pdef in sources:
-            if pdef is None or not pdef.is_a("IfcPropertySet") or (pdef.Name or "") != pset_name:
+            if not _entity(pdef) or not pdef.is_a("IfcPropertySet") or (pdef.Name or "") != pset_name:
                 continue
-            for prop in pdef.HasProperties or ():
+            for prop in _entities(pdef.HasProperties):
                 if prop.Name == prop_name and prop.is_a("IfcPropertySingleValue"):
                     v = prop.NominalValue
-                    return getattr(v, "wrappedValue", v)
+                    v = getattr(v, "wrappedValue", v)
+                    return v if isinstance(v, (str, int, float, bool)) else None
         return None

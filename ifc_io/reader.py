@@ -22,7 +22,7 @@ from typing import Any
 
 from engine.errors import BadInputError, UnsupportedSchemaError
 from engine.model import Frame
-from ifc_io.open import SUPPORTED_SCHEMAS, normalise_schema, open_model
+from ifc_io.open import SUPPORTED_SCHEMAS, normalise_schema, open_model, parse_problems
 from ifc_io.read_bearings import BEARING_CLASSES, read_bearings
 from ifc_io.read_context import ReadContext
 from ifc_io.read_materials import SteelResolver
@@ -115,9 +115,18 @@ def read_frame(source: Any, *, default_steel: str = "default", config: dict | No
         units = read_units(model)
     except ValueError as exc:
         raise BadInputError(f"{file or 'the model'}: its length unit cannot be converted to mm ({exc})") from exc
+    except (AttributeError, TypeError) as exc:  # a damaged file: units that are not unit entities
+        raise BadInputError(f"{file or 'the model'}: its unit assignment is malformed ({exc}); repair the "
+                            f"model or export it again") from exc
 
     properties = _requested_properties(config)
     ctx = ReadContext(model=model, mm=units.mm_per_unit, index=RelationIndex(model, with_properties=bool(properties)))
+    problems = parse_problems(model)
+    if problems:
+        shown = "; ".join(problems[:3]) + ("; ..." if len(problems) > 3 else "")
+        ctx.warn(f"the file is damaged: IfcOpenShell reported {len(problems)} problem(s) while parsing it "
+                 f"({shown}); what uses the damaged data is read as far as possible or skipped: check "
+                 f"those elements, or repair or export the model again")
     for note in units.notes:
         ctx.warn(note)
     mapping = ((config or {}).get("materials") or {}).get("map") or {}
@@ -140,6 +149,9 @@ def read_frame(source: Any, *, default_steel: str = "default", config: dict | No
         ctx.warn(f"the model has no physical members (IfcBeam, IfcColumn, IfcMember) but "
                  f"{counts['IfcStructuralCurveMember']} IfcStructuralCurveMember: it is an analysis "
                  f"model; nothing to audit")
+    elif not any(m.role == "beam" for m in members):
+        ctx.warn("the model has no beams joint-audit can read (no IfcBeam, or IfcMember used as a beam, "
+                 "with an axis): there are no beam-end joints to audit")
 
     return Frame(
         file=file,

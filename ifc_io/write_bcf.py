@@ -22,6 +22,7 @@ from __future__ import annotations
 
 import io
 import math
+import re
 import uuid
 import zipfile
 from typing import Any, Mapping, Sequence
@@ -53,10 +54,20 @@ def _guid(joint_id: str, what: str) -> str:
     return str(uuid.uuid5(_NS, f"{what}|{joint_id}"))
 
 
+# characters XML 1.0 does not allow (C0 controls other than tab, newline and return; lone
+# surrogates; U+FFFE and U+FFFF): names in a model may hold them, a BCF file may not
+_NOT_XML = re.compile("[\x00-\x08\x0b\x0c\x0e-\x1f\ud800-\udfff\ufffe\uffff]")
+
+
+def xml_safe(text: str) -> str:
+    """``text`` with every character XML 1.0 cannot hold replaced by U+FFFD (the replacement mark)."""
+    return _NOT_XML.sub("\ufffd", text)
+
+
 def _sub(parent, tag: str, text: str | None = None, **attrs: str):
-    el = etree.SubElement(parent, tag, {k: v for k, v in attrs.items() if v is not None})
+    el = etree.SubElement(parent, tag, {k: xml_safe(v) for k, v in attrs.items() if v is not None})
     if text is not None:
-        el.text = text
+        el.text = xml_safe(text)
     return el
 
 

@@ -49,7 +49,7 @@ def remove_joint_psets(model: ifcopenshell.file, element) -> int:
     removed = 0
     for rel in _rels_of(element):
         pset = rel.RelatingPropertyDefinition
-        if pset.is_a("IfcPropertySet") and pset.Name in PSET_NAMES:
+        if pset is not None and pset.is_a("IfcPropertySet") and pset.Name in PSET_NAMES:  # None: damaged file
             _remove_one(model, element, rel)
             removed += 1
     return removed
@@ -141,7 +141,7 @@ def write_joint_psets(
     for joint, beam, pset_name in iter_joint_beams(model, doc, statuses):
         for rel in _rels_of(beam):
             pset = rel.RelatingPropertyDefinition
-            if pset.is_a("IfcPropertySet") and pset.Name == pset_name:
+            if pset is not None and pset.is_a("IfcPropertySet") and pset.Name == pset_name:
                 _remove_one(model, beam, rel)
         props = [
             model.create_entity("IfcPropertySingleValue", Name=n, NominalValue=_value(model, t, v))
@@ -181,7 +181,7 @@ def read_joint_psets(model: ifcopenshell.file, element) -> dict[str, dict[str, A
     out: dict[str, dict[str, Any]] = {}
     for rel in _rels_of(element):
         pset = rel.RelatingPropertyDefinition
-        if pset.is_a("IfcPropertySet") and pset.Name in PSET_NAMES:
+        if pset is not None and pset.is_a("IfcPropertySet") and pset.Name in PSET_NAMES:  # None: damaged file
             out[pset.Name] = {
                 p.Name: (p.NominalValue.wrappedValue if p.NominalValue is not None else None)
                 for p in pset.HasProperties

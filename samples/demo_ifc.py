@@ -161,6 +161,9 @@ class _Writer:
         units.append(ifcopenshell.api.unit.add_si_unit(f, unit_type="VOLUMEUNIT"))
         units.append(ifcopenshell.api.unit.add_si_unit(f, unit_type="PLANEANGLEUNIT"))
         ifcopenshell.api.unit.assign_unit(f, units=units)
+        # the API gathers the units in a set: fix their order so the bytes never depend on it
+        for assignment in f.by_type("IfcUnitAssignment"):
+            assignment.Units = units
 
     def spatial(self) -> None:
         f = self.f
