@@ -20,6 +20,7 @@ precedence.
 from __future__ import annotations
 
 import math
+import re
 from typing import Any, Iterable, Mapping
 
 import ifcopenshell
@@ -32,24 +33,22 @@ __all__ = ["step_string", "step_real", "joint_pset_lines", "write_model_with_pse
 _DESCRIPTION = "joint-audit result for this beam end (an aid to a competent engineer; check it)"
 
 
+_NOT_PLAIN = re.compile(r"[^\x20-\x7E]")
+
+
+def _encode_char(m: re.Match) -> str:
+    o = ord(m.group())
+    return f"\\X2\\{o:04X}\\X0\\" if o <= 0xFFFF else f"\\X4\\{o:08X}\\X0\\"
+
+
 def step_string(text: str) -> str:
-    """``text`` as a STEP string literal (ISO 10303-21 §7.3.3), quotes included."""
-    if text.isascii() and text.isprintable():  # the common case, without a per-character loop
-        return "'" + text.replace("\\", "\\\\").replace("'", "''") + "'"
-    out = []
-    for ch in text:
-        o = ord(ch)
-        if ch == "'":
-            out.append("''")
-        elif ch == "\\":
-            out.append("\\\\")
-        elif 0x20 <= o < 0x7F:
-            out.append(ch)
-        elif o <= 0xFFFF:
-            out.append(f"\\X2\\{o:04X}\\X0\\")
-        else:
-            out.append(f"\\X4\\{o:08X}\\X0\\")
-    return "'" + "".join(out) + "'"
+    """``text`` as a STEP string literal (ISO 10303-21 §7.3.3), quotes included: apostrophes and
+    backslashes doubled, anything but printable ASCII as ``\\X2\\hhhh\\X0\\`` (or ``\\X4\\`` beyond
+    the basic plane)."""
+    body = text.replace("\\", "\\\\").replace("'", "''")
+    if not (body.isascii() and body.isprintable()):
+        body = _NOT_PLAIN.sub(_encode_char, body)
+    return "'" + body + "'"
 
 
 def step_real(value: float) -> str:
