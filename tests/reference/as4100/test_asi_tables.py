@@ -1,23 +1,13 @@
 """The ``as4100`` rule set against published design capacity tables and material data.
 
-Each reference value carries its source and says whether it was **found by search** (an excerpt of
-the page or data sheet named, showing the value, was read through the search tool) or is
-**# from memory** (recalled from the ASI "Design Capacity Tables for
-Structural Steel", Vol. 1, and AS 4100 Table 9.6.2; not re-read). Tolerance = half a unit of the
-last digit printed in the source, unless noted.
+Each reference value carries its source: the clause computed by hand in the test (the arithmetic
+is written beside it), a data sheet found by search, or a table value **# from memory** (recalled
+from the ASI "Design Capacity Tables for Structural Steel", Vol. 1, and AS 4100; not re-read).
+Tolerance = half a unit of the last digit printed in the source, unless noted.
 
-Sources found by search:
-  [SC-bolt]  steelcalculator.app, "AS 4100 Bolt Capacity" reference page, table "V_f unthreaded
-             (kN)" for 8.8 bolts (= φVf with threads excluded, φ = 0.8).
-  [SC-weld]  steelcalculator.app, "Australian weld capacity - worked", table "Weld Capacity Table —
-             E48XX, SP Category (phi = 0.80)", φvw in kN/mm.
-  [SC-wsp]   steelcalculator.app, "AU shear connection design" (web side plate), Step 2 ply bearing:
-             0.90 × 3.2 × 20 × 10 × 440 / 1000 = 253 kN.
-  [SC-grade] steelcalculator.app, "Australian Bolt Specification Guide": fuf 400 (4.6/S), 830 (8.8/S).
+Source found by search:
   [NZS-300]  New Zealand Steel data sheet "AS3678 300S0 Hot-Rolled Plate" (rev. 20/07/2016),
              expected minimum properties: fy 310 (10-12 mm), 300 (12-20 mm), 280 (20-50 mm), fu 430.
-Note: some of those pages print threads-included bolt capacities with the tensile stress area As
-in place of the minor-diameter area Ac of AS 4100 cl. 9.3.2.1; those values are not used here.
 """
 
 from __future__ import annotations
@@ -27,16 +17,19 @@ import pytest
 from rules import as4100_data as D
 
 
-# ----------------------------------------------------------------------------- bolts, threads excluded (found)
-@pytest.mark.parametrize("size, kN", [
-    ("M16", 82.8),   # [SC-bolt] found by search
-    ("M20", 129.3),  # [SC-bolt] found by search
-    ("M24", 186.1),  # [SC-bolt] found by search
-    ("M30", 291.1),  # [SC-bolt] found by search
-    ("M36", 419.1),  # [SC-bolt] found by search
+# ----------------------------------------------------------------------------- bolts, threads excluded
+@pytest.mark.parametrize("size, Ao, kN", [
+    # AS 4100 cl. 9.3.2.1: φVf = 0.8 × 0.62 × fuf × kr × Ao = 0.8 × 0.62 × 830 × 1.0 × Ao = 411.68 Ao N,
+    # Ao = plain shank area (AS 1275 Table 4) # from memory; the ASI DCT 8.8/X column prints the same
+    # values to 3 figures (82.7, 129, 186, 291, 419 kN) # from memory
+    ("M16", 201.0, 82.7),    # 411.68 × 201 = 82 748 N
+    ("M20", 314.0, 129.3),   # 411.68 × 314 = 129 268 N
+    ("M24", 452.0, 186.1),   # 411.68 × 452 = 186 079 N
+    ("M30", 707.0, 291.1),   # 411.68 × 707 = 291 058 N
+    ("M36", 1018.0, 419.1),  # 411.68 × 1018 = 419 090 N
 ])
-def test_bolt_shear_8_8_threads_excluded_matches_published_table(rs, size, kN):
-    # the page uses Ao = π d²/4 unrounded (201.06 mm² for M16), AS 1275 rounds to 201: allow 0.1 kN
+def test_bolt_shear_8_8_threads_excluded_is_the_clause_by_hand(rs, size, Ao, kN):
+    assert rs.bolt_shear_capacity(size, "8.8/S", threads_in_shear_plane=False) == pytest.approx(0.8 * 0.62 * 830 * Ao, rel=1e-3)
     assert rs.bolt_shear_capacity(size, "8.8/S", threads_in_shear_plane=False) / 1e3 == pytest.approx(kN, abs=0.1)
 
 
@@ -54,20 +47,22 @@ def test_bolt_shear_threads_included_matches_asi_tables(rs, size, grade, kN):
 
 
 def test_bolt_tensile_strengths_match_table_9_3_1():
-    assert D.bolt_fuf("4.6/S") == 400.0   # [SC-grade] found by search
-    assert D.bolt_fuf("8.8/S") == 830.0   # [SC-grade] found by search
+    assert D.bolt_fuf("4.6/S") == 400.0   # AS 4100 Table 9.3.1 # from memory
+    assert D.bolt_fuf("8.8/S") == 830.0   # AS 4100 Table 9.3.1 # from memory
     assert D.bolt_fuf("8.8/TB") == 830.0  # AS 4100 Table 9.3.1 # from memory
 
 
-# ----------------------------------------------------------------------------- welds (found)
+# ----------------------------------------------------------------------------- welds
 @pytest.mark.parametrize("leg, kN_per_mm, tol", [
-    (5, 0.82, 0.006),  # [SC-weld] found; the page rounds tt to 3.54 first (0.8156 -> 0.82)
-    (6, 0.98, 0.005),  # [SC-weld] found by search (ASI DCT prints 0.978 # from memory)
-    (8, 1.30, 0.005),  # [SC-weld] found by search
-    (10, 1.63, 0.005), # [SC-weld] found by search
-    (12, 1.96, 0.005), # [SC-weld] found by search
+    # AS 4100 cl. 9.7.3.10: φvw = φ × 0.6 × fuw × tt × kr, φ = 0.8 (SP), fuw = 480 MPa (E48XX),
+    # tt = leg / √2 (equal-leg fillet), kr = 1.0:
+    (5, 0.815, 0.0005),   # 0.8 × 0.6 × 480 × 3.536 = 814.6 N/mm
+    (6, 0.978, 0.0005),   # 0.8 × 0.6 × 480 × 4.243 = 977.5 N/mm (ASI DCT 0.978 # from memory)
+    (8, 1.303, 0.0005),   # 0.8 × 0.6 × 480 × 5.657 = 1303.3 N/mm
+    (10, 1.629, 0.0005),  # 0.8 × 0.6 × 480 × 7.071 = 1629.2 N/mm
+    (12, 1.955, 0.0005),  # 0.8 × 0.6 × 480 × 8.485 = 1955.0 N/mm
 ])
-def test_fillet_weld_e48xx_sp_matches_published_table(rs, leg, kN_per_mm, tol):
+def test_fillet_weld_e48xx_sp_is_the_clause_by_hand(rs, leg, kN_per_mm, tol):
     assert rs.fillet_weld_capacity(leg, "E48XX SP") / 1e3 == pytest.approx(kN_per_mm, abs=tol)
 
 
@@ -75,9 +70,9 @@ def test_fillet_weld_6mm_e48xx_sp_matches_dct_to_three_figures(rs):
     assert rs.fillet_weld_capacity(6, "E48XX") / 1e3 == pytest.approx(0.978, abs=0.0005)  # ASI DCT # from memory
 
 
-# ----------------------------------------------------------------------------- bearing (found)
+# ----------------------------------------------------------------------------- bearing
 def test_ply_bearing_m20_10mm_grade_300_section_steel(rs):
-    # [SC-wsp] found by search: φVb = 0.9 × 3.2 × 20 × 10 × 440 = 253 kN
+    # AS 4100 cl. 9.3.2.4 by hand: φVb = 0.9 × 3.2 × df × tp × fup = 0.9 × 3.2 × 20 × 10 × 440 = 253 440 N
     from rules import as4100_checks as C
 
     assert 0.9 * C.Vb_bearing(20, 10, 440) / 1e3 == pytest.approx(253, abs=0.5)
