@@ -7,9 +7,7 @@ threads included (N), standard holes, a = 3 in., pitch 3 in., Lev = 1-1/4 in., L
 3/16 in. E70 fillet welds both sides. The example takes φRn = 52.2 kips from Manual Table 10-10a.
 
 The problem statement and the 52.2 kips answer are recalled from the publication (# from memory);
-the search tool found them restated in public repositories (a test script's comment "Design
-Example II.A-17A ... 52.2 k [Table 10.10a]" with these inputs, and a third-party write-up of II.A-17A with
-Ru = 49.6 kips and d_h = 13/16 in.), not the Design Examples pages themselves.
+the Design Examples pages themselves could not be read in the stored material.
 Section properties W16×50 (d = 16.3, bf = 7.07, tw = 0.380, tf = 0.630, kdes = 1.03 in.) and
 W14×90 (d = 14.0, bf = 14.5, tw = 0.440, tf = 0.710 in.): AISC Manual Table 1-1 # from memory.
 """
