@@ -27,6 +27,8 @@ import uuid
 import zipfile
 from typing import Any, Mapping, Sequence
 
+from xml.sax.saxutils import escape, quoteattr
+
 from lxml import etree
 
 from engine.errors import OutputError
@@ -94,12 +96,6 @@ def _camera(location_mm: Sequence[float]) -> tuple[tuple[float, ...], tuple[floa
     return eye, d, tuple(c / un for c in up)
 
 
-def _point(parent, tag: str, xyz: Sequence[float]) -> None:
-    el = _sub(parent, tag)
-    for axis, v in zip("XYZ", xyz):
-        _sub(el, axis, _fmt(v))
-
-
 def _describe(j: Mapping[str, Any]) -> str:
     parts = [f"Joint {j['id']}: {j['end']} of {j.get('beam_name') or j['beam']} on "
              f"{j.get('support_name') or j.get('support') or 'no support'}, {j['kind']}, support {j['stiffness']}."]
@@ -116,77 +112,71 @@ def _describe(j: Mapping[str, Any]) -> str:
     return " ".join(parts)
 
 
+def _t(text: str) -> str:
+    """Element text: XML-safe and escaped."""
+    return escape(xml_safe(text))
+
+
+def _a(value: str) -> str:
+    """An attribute value, quoted: XML-safe and escaped."""
+    return quoteattr(xml_safe(value))
+
+
+_DECL = "<?xml version='1.0' encoding='UTF-8'?>\n"
+
+
+def _labels(j: Mapping[str, Any]) -> list[str]:
+    return ["joint-audit", j["status"], j["kind"]] + ([j["storey"]] if j.get("storey") else [])
+
+
 def _markup(j: Mapping[str, Any], doc: Mapping[str, Any], version: str, date: str, project_guid: str | None,
             closed: bool, snapshot: bool) -> bytes:
+    """markup.bcf of one topic (built as text: this runs once per issue on large models)."""
     jid = j["id"]
+    v3 = version == "3.0"
     status = "Closed" if closed else "Open"
-    root = etree.Element("Markup")
-    header = _sub(root, "Header")
-    file_parent = _sub(header, "Files") if version == "3.0" else header
-    attrs = {"IfcProject": project_guid} if project_guid else {}
-    if version == "3.0":
-        f = _sub(file_parent, "File", **attrs, IsExternal="true")
-    else:
-        f = _sub(file_parent, "File", **attrs, isExternal="true")
-    _sub(f, "Filename", doc["model"]["file"])
-    if date:
-        _sub(f, "Date", date)
-    topic = _sub(root, "Topic", Guid=topic_guid(jid), TopicType="Structural connection", TopicStatus=status)
+    when = _t(date or "1970-01-01T00:00:00Z")
+    proj = f" IfcProject={_a(project_guid)}" if project_guid else ""
+    ext = "IsExternal" if v3 else "isExternal"
+    file_el = (f"<File{proj} {ext}=\"true\"><Filename>{_t(doc['model']['file'])}</Filename>"
+               + (f"<Date>{_t(date)}</Date>" if date else "") + "</File>")
+    header = f"<Header><Files>{file_el}</Files></Header>" if v3 else f"<Header>{file_el}</Header>"
     title = f"{'Resolved: ' if closed else ''}{_TITLES.get(j['status'], 'Connection issue')} — {j['end']} of {j.get('beam_name') or j['beam']}"
-    _sub(topic, "Title", title)
-    labels = ["joint-audit", j["status"], j["kind"]] + ([j["storey"]] if j.get("storey") else [])
-    if version == "3.0":
-        lab = _sub(topic, "Labels")
-        for label in labels:
-            _sub(lab, "Label", label)
+    labels = _labels(j)
+    if v3:
+        label_xml = "<Labels>" + "".join(f"<Label>{_t(x)}</Label>" for x in labels) + "</Labels>"
     else:
-        for label in labels:
-            _sub(topic, "Labels", label)
-    _sub(topic, "CreationDate", date or "1970-01-01T00:00:00Z")
-    _sub(topic, "CreationAuthor", _AUTHOR)
-    _sub(topic, "Description", _describe(j))
+        label_xml = "".join(f"<Labels>{_t(x)}</Labels>" for x in labels)
+    description = _describe(j)
     vp_guid = _guid(jid, "viewpoint")
-    comment_text = ("Resolved in this run: " if closed else "") + _describe(j)
-
-    def comment(parent) -> None:
-        c = _sub(parent, "Comment", Guid=_guid(jid, "comment"))
-        _sub(c, "Date", date or "1970-01-01T00:00:00Z")
-        _sub(c, "Author", _AUTHOR)
-        _sub(c, "Comment", comment_text)
-        _sub(c, "Viewpoint", Guid=vp_guid)
-
-    def viewpoint(parent, tag: str) -> None:
-        v = _sub(parent, tag, Guid=vp_guid)
-        _sub(v, "Viewpoint", "viewpoint.bcfv")
-        if snapshot:
-            _sub(v, "Snapshot", "snapshot.png")
-
-    if version == "3.0":
-        comment(_sub(topic, "Comments"))
-        viewpoint(_sub(topic, "Viewpoints"), "ViewPoint")
+    comment = (f"<Comment Guid=\"{_guid(jid, 'comment')}\"><Date>{when}</Date><Author>{_AUTHOR}</Author>"
+               f"<Comment>{_t(('Resolved in this run: ' if closed else '') + description)}</Comment>"
+               f"<Viewpoint Guid=\"{vp_guid}\"/></Comment>")
+    vp_inner = "<Viewpoint>viewpoint.bcfv</Viewpoint>" + ("<Snapshot>snapshot.png</Snapshot>" if snapshot else "")
+    topic_open = (f"<Topic Guid=\"{topic_guid(jid)}\" TopicType=\"Structural connection\" TopicStatus=\"{status}\">"
+                  f"<Title>{_t(title)}</Title>{label_xml}<CreationDate>{when}</CreationDate>"
+                  f"<CreationAuthor>{_AUTHOR}</CreationAuthor><Description>{_t(description)}</Description>")
+    if v3:
+        body = (topic_open + f"<Comments>{comment}</Comments>"
+                f"<Viewpoints><ViewPoint Guid=\"{vp_guid}\">{vp_inner}</ViewPoint></Viewpoints></Topic>")
     else:
-        comment(root)
-        viewpoint(root, "Viewpoints")
-    return _xml(root)
+        body = topic_open + "</Topic>" + comment + f"<Viewpoints Guid=\"{vp_guid}\">{vp_inner}</Viewpoints>"
+    return (_DECL + f"<Markup>{header}{body}</Markup>\n").encode("utf-8")
+
+
+def _xyz(tag: str, v: Sequence[float]) -> str:
+    return f"<{tag}><X>{_fmt(v[0])}</X><Y>{_fmt(v[1])}</Y><Z>{_fmt(v[2])}</Z></{tag}>"
 
 
 def _visinfo(j: Mapping[str, Any], version: str) -> bytes:
-    root = etree.Element("VisualizationInfo", Guid=_guid(j["id"], "viewpoint"))
-    comps = _sub(root, "Components")
-    sel = _sub(comps, "Selection")
-    for gid in (j["beam"], j.get("support")):
-        if gid:
-            _sub(sel, "Component", IfcGuid=gid)
-    _sub(comps, "Visibility", DefaultVisibility="true")
+    """viewpoint.bcfv of one topic: the beam and its support selected, a camera on the joint."""
+    comps = "".join(f"<Component IfcGuid={_a(g)}/>" for g in (j["beam"], j.get("support")) if g)
     eye, direction, up = _camera(j.get("location_mm") or (0.0, 0.0, 0.0))
-    cam = _sub(root, "PerspectiveCamera")
-    _point(cam, "CameraViewPoint", eye)
-    _point(cam, "CameraDirection", direction)
-    _point(cam, "CameraUpVector", up)
-    _sub(cam, "FieldOfView", "60")
-    if version == "3.0":
-        _sub(cam, "AspectRatio", "1.5")
-    return _xml(root)
+    cam = (_xyz("CameraViewPoint", eye) + _xyz("CameraDirection", direction) + _xyz("CameraUpVector", up)
+           + "<FieldOfView>60</FieldOfView>" + ("<AspectRatio>1.5</AspectRatio>" if version == "3.0" else ""))
+    return (_DECL + f"<VisualizationInfo Guid=\"{_guid(j['id'], 'viewpoint')}\"><Components>"
+            f"<Selection>{comps}</Selection><Visibility DefaultVisibility=\"true\"/></Components>"
+            f"<PerspectiveCamera>{cam}</PerspectiveCamera></VisualizationInfo>\n").encode("utf-8")
 
 
 def _version(version: str) -> bytes:
@@ -210,7 +200,7 @@ def _project(doc: Mapping[str, Any], version: str, project_guid: str | None, pro
     return _xml(root)
 
 
-def _extensions() -> bytes:
+def _extensions(labels: Sequence[str] = ()) -> bytes:
     root = etree.Element("Extensions")
     tt = _sub(root, "TopicTypes")
     _sub(tt, "TopicType", "Structural connection")
@@ -218,7 +208,8 @@ def _extensions() -> bytes:
     for s in ("Open", "Closed"):
         _sub(ts, "TopicStatus", s)
     tl = _sub(root, "TopicLabels")
-    for s in ("joint-audit", "fail", "needs-design", "incomplete", "column-flange", "column-web", "beam-web"):
+    base = ["joint-audit", "fail", "needs-design", "incomplete", "column-flange", "column-web", "beam-web"]
+    for s in base + sorted(set(labels) - set(base)):
         _sub(tl, "TopicLabel", s)
     return _xml(root)
 
@@ -251,10 +242,10 @@ def bcf_archive(
     snapshots = snapshots or {}
     entries: list[tuple[str, bytes | None]] = [("bcf.version", _version(version)),
                                                ("project.bcfp", _project(doc, version, project_guid, project_name))]
-    if version == "3.0":
-        entries.append(("extensions.xml", _extensions()))
     topics: list[tuple[Mapping[str, Any], bool]] = [(j, False) for j in doc["joints"] if j["status"] in ISSUE_STATUSES]
     topics += [(j, True) for j in doc["joints"] if j.get("baseline") == "resolved"]
+    if version == "3.0":
+        entries.append(("extensions.xml", _extensions([x for j, _ in topics for x in _labels(j)])))
     for j, closed in sorted(topics, key=lambda t: t[0]["id"]):
         folder = topic_guid(j["id"])
         entries.append((folder + "/", None))
