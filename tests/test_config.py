@@ -60,3 +60,14 @@ def test_shown_config_round_trips(tmp_path):
     f.write_text(dumps_toml(cfg))
     assert load_config(f) == cfg
     assert set(DEFAULTS) == set(cfg)
+
+
+def test_the_readme_config_example_is_valid_and_shows_the_defaults(tmp_path):
+    from pathlib import Path
+
+    readme = (Path(__file__).resolve().parents[1] / "README.md").read_text(encoding="utf-8")
+    block = readme.split("```toml", 1)[1].split("```", 1)[0]
+    f = tmp_path / "readme.toml"
+    f.write_text(block)
+    cfg = load_config(f)
+    assert cfg == load_config()  # the README lists the defaults
