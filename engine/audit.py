@@ -77,11 +77,11 @@ def choose_connections(
     return choices, warnings
 
 
-def _propose(finding, demands, choices, members, ruleset, policy, space, progress):
+def _propose(finding, demands, choices, members, ruleset, policy, space, progress, skip_beams=frozenset()):
     from engine.design import propose_fin_plate
 
     todo = [j for j in finding.joints if j.id in choices and choices[j.id].plate is None
-            and not choices[j.id].missing and demands.get(j.id) is not None]
+            and not choices[j.id].missing and demands.get(j.id) is not None and j.beam not in skip_beams]
     out = dict(choices)
     for i, j in enumerate(todo):
         prop = propose_fin_plate(j, demands[j.id], members[j.beam], members.get(j.support) if j.support else None,
@@ -139,11 +139,12 @@ def run_audit(
 
     choices, conn_warnings = choose_connections(finding, frame, members, connection_schedule, steel_lookup, config)
     warnings += conn_warnings
+    # beams with a free end: their supported end is a cantilever root, not a fin-plate joint
+    cantilevers = frozenset(j.beam for j in finding.joints if j.kind == "free-end")
     if design_space is not None:
-        choices = _propose(finding, demands, choices, members, ruleset, policy, design_space, progress)
+        choices = _propose(finding, demands, choices, members, ruleset, policy, design_space, progress, cantilevers)
 
     results: list[JointResult] = []
-    cantilevers = frozenset(j.beam for j in finding.joints if j.kind == "free-end")
     total = len(finding.joints)
     step = max(1, total // 100)
     for i, j in enumerate(finding.joints):

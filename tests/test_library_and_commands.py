@@ -78,3 +78,19 @@ def test_the_demo_runs_under_every_code(code, tmp_path):
     assert doc["code"] == code
     checked = [j for j in doc["joints"] if j["checks"]]
     assert checked and all(c["clause"] for j in checked for c in j["checks"])
+
+
+def test_design_option_proposes_passing_plates_for_joints_without_one(tmp_path):
+    rc = main(["audit", str(SAMPLES / "demo-ifc4-mm.ifc"), "--config", str(SAMPLES / "demo-config.toml"),
+               "--schedule", str(SAMPLES / "demo-schedule.csv"), "--design", "--out", str(tmp_path)])
+    doc = json.loads((tmp_path / "results.json").read_text())
+    proposed = [j for j in doc["joints"] if j["connection"] and j["connection"]["source"] == "proposed"]
+    assert proposed, "no fin plate proposed"
+    assert all(j["status"] == "pass" and all(c["passed"] for c in j["checks"]) for j in proposed)
+    assert all("proposed by --design" in j["note"] for j in proposed)
+    # modelled and scheduled connections keep their own outcome: the 3 deliberately weak plates still fail
+    assert doc["summary"]["fail"] == 3
+    assert doc["summary"]["needs-design"] < 96  # without --design: 96
+    left = [j for j in doc["joints"] if j["status"] == "needs-design"]
+    assert all("--design found no fin plate" in j["note"] for j in left)
+    assert rc == 1
