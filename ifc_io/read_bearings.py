@@ -10,6 +10,7 @@ from __future__ import annotations
 
 import numpy as np
 
+from ifc_io.read_relations import elements_once
 from engine.model import Bearing
 from ifc_io.read_axes import read_geometry, solid_corners
 from ifc_io.read_geometry import MAX_COORDINATE_MM, apply, text_value
@@ -39,42 +40,33 @@ def world_box(el, ctx) -> tuple[np.ndarray, np.ndarray] | None:
 
 def read_bearings(ctx) -> list[Bearing]:
     out: list[Bearing] = []
-    seen: set[int] = set()
     mm = ctx.mm
-    for cls in BEARING_CLASSES:
-        try:
-            elements = ctx.model.by_type(cls)
-        except RuntimeError:
+    for el in elements_once(ctx.model, BEARING_CLASSES):
+        gid = text_value(el.GlobalId)
+        if not gid.strip():
+            ctx.warn(f"{el.is_a()} #{el.id()} has no GlobalId; not used as a bearing", None)
             continue
-        for el in elements:
-            if el.id() in seen:
-                continue
-            seen.add(el.id())
-            gid = text_value(el.GlobalId)
-            if not gid.strip():
-                ctx.warn(f"{el.is_a()} #{el.id()} has no GlobalId; not used as a bearing", None)
-                continue
-            try:
-                box = world_box(el, ctx)
-            except Exception as exc:  # one bad element never stops the read
-                ctx.warn(f"{el.is_a()} body could not be read ({type(exc).__name__}: {exc}); "
-                         f"not used as a bearing", gid)
-                continue
-            if box is None:
-                ctx.warn(f"{el.is_a()} has no swept solid, brep or box to bound it; not used as a bearing", gid)
-                continue
-            lo, hi = box
-            if not (np.all(np.isfinite(lo)) and np.all(np.isfinite(hi))
-                    and max(np.abs(lo).max(), np.abs(hi).max()) * mm <= MAX_COORDINATE_MM):
-                ctx.warn(f"{el.is_a()}: its body is not finite or lies beyond {MAX_COORDINATE_MM:g} mm from "
-                         f"the origin (corrupt placement or geometry); not used as a bearing", gid)
-                continue
-            out.append(Bearing(
-                global_id=gid,
-                ifc_class=el.is_a(),
-                name=text_value(el.Name),
-                bbox_min=tuple(float(x) * mm for x in lo),
-                bbox_max=tuple(float(x) * mm for x in hi),
-                storey=ctx.index.storey_name(el),
-            ))
+        try:
+            box = world_box(el, ctx)
+        except Exception as exc:  # one bad element never stops the read
+            ctx.warn(f"{el.is_a()} body could not be read ({type(exc).__name__}: {exc}); "
+                     f"not used as a bearing", gid)
+            continue
+        if box is None:
+            ctx.warn(f"{el.is_a()} has no swept solid, brep or box to bound it; not used as a bearing", gid)
+            continue
+        lo, hi = box
+        if not (np.all(np.isfinite(lo)) and np.all(np.isfinite(hi))
+                and max(np.abs(lo).max(), np.abs(hi).max()) * mm <= MAX_COORDINATE_MM):
+            ctx.warn(f"{el.is_a()}: its body is not finite or lies beyond {MAX_COORDINATE_MM:g} mm from "
+                     f"the origin (corrupt placement or geometry); not used as a bearing", gid)
+            continue
+        out.append(Bearing(
+            global_id=gid,
+            ifc_class=el.is_a(),
+            name=text_value(el.Name),
+            bbox_min=tuple(float(x) * mm for x in lo),
+            bbox_max=tuple(float(x) * mm for x in hi),
+            storey=ctx.index.storey_name(el),
+        ))
     return out

@@ -23,6 +23,7 @@ from __future__ import annotations
 
 import math
 
+from ifc_io.read_relations import elements_once
 from engine.model import Member, Section
 from ifc_io.read_axes import member_axis, read_geometry, tessellated_axis
 from ifc_io.read_geometry import MAX_COORDINATE_MM, arg, text_value
@@ -165,25 +166,16 @@ def _vec(v, scale: float = 1.0) -> tuple[float, float, float]:
 def read_members(ctx, steel_resolver, properties: tuple[str, ...] = ()) -> list[Member]:
     """Every IfcBeam, IfcColumn and IfcMember with a usable axis (warnings go to ``ctx``)."""
     members: list[Member] = []
-    seen: set[int] = set()
     cache = _SectionCache(ctx)
-    for cls in ("IfcBeam", "IfcColumn", "IfcMember"):
+    for el in elements_once(ctx.model, ("IfcBeam", "IfcColumn", "IfcMember")):
         try:
-            elements = ctx.model.by_type(cls)
-        except RuntimeError:
+            m = _read_member(el, ctx, cache, steel_resolver, properties)
+        except Exception as exc:  # one bad element never stops the read
+            ctx.warn(f"{el.is_a()} could not be read ({type(exc).__name__}: {exc}); skipped",
+                     getattr(el, "GlobalId", None))
             continue
-        for el in elements:
-            if el.id() in seen:
-                continue
-            seen.add(el.id())
-            try:
-                m = _read_member(el, ctx, cache, steel_resolver, properties)
-            except Exception as exc:  # one bad element never stops the read
-                ctx.warn(f"{el.is_a()} could not be read ({type(exc).__name__}: {exc}); skipped",
-                         getattr(el, "GlobalId", None))
-                continue
-            if m is not None:
-                members.append(m)
+        if m is not None:
+            members.append(m)
     return members
 
 

@@ -25,6 +25,7 @@ from __future__ import annotations
 import math
 
 from engine.model import ConnectionPart
+from ifc_io.read_relations import elements_once
 from ifc_io.read_axes import read_geometry, solid_corners
 from ifc_io.read_geometry import IDENTITY, MAX_COORDINATE_MM, text_value, add, apply, apply_dir, column, mul, norm, scale, sub, unit
 from ifc_io.read_materials import material_info
@@ -39,13 +40,6 @@ PART_CLASSES: tuple[tuple[str, str], ...] = (
     ("IfcElementAssembly", "assembly"),
 )
 MEMBER_CLASSES: tuple[str, ...] = ("IfcBeam", "IfcColumn", "IfcMember")
-
-
-def _by_type(model, cls):
-    try:
-        return model.by_type(cls)
-    except RuntimeError:
-        return []
 
 
 def _vec(v) -> tuple[float, float, float]:
@@ -184,26 +178,20 @@ def _predefined(el, index) -> str:
 
 def read_parts(ctx) -> list[ConnectionPart]:
     """Every connection part of the model (warnings go to ``ctx``)."""
-    model = ctx.model
-    seen: set[int] = set()
     parts: list[ConnectionPart] = []
-    for cls, _ in PART_CLASSES:
-        for el in _by_type(model, cls):
-            if el.id() in seen:
-                continue
-            seen.add(el.id())
-            kind = next(k for c, k in PART_CLASSES if el.is_a(c))
-            try:
-                part = _read_part(el, kind, ctx)
-            except Exception as exc:  # one bad part never stops the read
-                ctx.warn(f"{el.is_a()} could not be read ({type(exc).__name__}: {exc}); skipped",
-                         getattr(el, "GlobalId", None))
-                continue
-            if not _plausible(part):
-                ctx.warn(f"{el.is_a()}: its placement or size is not finite or lies beyond "
-                         f"{MAX_COORDINATE_MM:g} mm (corrupt placement or geometry); skipped", part.global_id)
-                continue
-            parts.append(part)
+    for el in elements_once(ctx.model, [c for c, _ in PART_CLASSES]):
+        kind = next(k for c, k in PART_CLASSES if el.is_a(c))
+        try:
+            part = _read_part(el, kind, ctx)
+        except Exception as exc:  # one bad part never stops the read
+            ctx.warn(f"{el.is_a()} could not be read ({type(exc).__name__}: {exc}); skipped",
+                     getattr(el, "GlobalId", None))
+            continue
+        if not _plausible(part):
+            ctx.warn(f"{el.is_a()}: its placement or size is not finite or lies beyond "
+                     f"{MAX_COORDINATE_MM:g} mm (corrupt placement or geometry); skipped", part.global_id)
+            continue
+        parts.append(part)
     return parts
 
 

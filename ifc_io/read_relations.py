@@ -38,6 +38,17 @@ def _by_type(model, cls: str):
         return []
 
 
+def elements_once(model, classes):
+    """Every element of the given IFC classes (subtypes included), each once, in class order then
+    file order; a class the schema does not have is skipped."""
+    seen: set[int] = set()
+    for cls in classes:
+        for el in _by_type(model, cls):
+            if el.id() not in seen:
+                seen.add(el.id())
+                yield el
+
+
 class RelationIndex:
     """Relationship look-ups for one model (ids are ``entity.id()``)."""
 
