@@ -16,10 +16,10 @@ from typing import Any, Callable, Mapping
 
 from engine.connection_schedule import ConnectionSchedule
 from engine.evaluate import FIN_PLATE_KINDS, ConnectionChoice, evaluate_joints
-from engine.config import DEFAULT_ELECTRODE_BY_CODE, DEFAULT_PLATE_GRADE_BY_CODE
+from engine.config import plate_grade as configured_plate_grade, weld_electrode
 from engine.model import DataWarning, Frame, JointResult, Member, Steel, Weld
 
-__all__ = ["AuditOutcome", "run_audit", "Progress"]
+__all__ = ["AuditOutcome", "run_audit", "find_frame_joints", "Progress"]
 
 Progress = Callable[[str, int, int], None]
 """``progress(stage, done, total)`` — called as work advances (the CLI draws a bar on a terminal)."""
@@ -56,8 +56,8 @@ def choose_connections(
 
     shear_joints = [j for j in finding.joints if j.kind in FIN_PLATE_KINDS]
     c = config["connections"]
-    weld = Weld(c["weld_leg_mm"], c["weld_electrode"] or DEFAULT_ELECTRODE_BY_CODE.get(config["code"], ""), c["both_sides"])
-    plate_grade = config["materials"]["plate_grade"] or DEFAULT_PLATE_GRADE_BY_CODE.get(config["code"], "")
+    weld = Weld(c["weld_leg_mm"], weld_electrode(config), c["both_sides"])
+    plate_grade = configured_plate_grade(config)
     modelled, warnings = recover_fin_plates(
         frame.parts, shear_joints, members, steel_lookup=steel_lookup, default_weld=weld,
         default_plate_grade=plate_grade,
@@ -75,6 +75,17 @@ def choose_connections(
                 continue
         choices[j.id] = ConnectionChoice(None, "", note="no connection modelled or scheduled")
     return choices, warnings
+
+
+def find_frame_joints(frame: Frame, config: Mapping[str, Any]):
+    """Every joint of ``frame`` (``engine.joints.find_joints``) with the configured tolerances and
+    support policy."""
+    from engine.joints import find_joints
+    from engine.tolerances import Tolerances
+
+    return find_joints(frame.members, frame.bearings, frame.connections,
+                       tolerances=Tolerances.from_config(config.get("tolerances", {})),
+                       policy=config["support"]["policy"])
 
 
 def _propose(finding, demands, choices, members, ruleset, policy, space, progress, skip_beams=frozenset()):
@@ -113,16 +124,11 @@ def run_audit(
     shear but no modelled or scheduled connection gets the lightest passing proposal, or stays
     ``needs-design`` with the reason none was found."""
     from engine.demand import resolve_demands
-    from engine.joints import find_joints
     from engine.results import baseline_marks, results_document
-    from engine.tolerances import Tolerances
 
     policy = config["support"]["policy"]
     progress("joints", 0, 1)
-    finding = find_joints(
-        frame.members, frame.bearings, frame.connections,
-        tolerances=Tolerances.from_config(config.get("tolerances", {})), policy=policy,
-    )
+    finding = find_frame_joints(frame, config)
     progress("joints", 1, 1)
     members = {m.global_id: m for m in frame.members}
     warnings: list[DataWarning] = list(frame.warnings) + list(finding.warnings)

@@ -109,19 +109,6 @@ def load_frame(path: str | os.PathLike[str], config: dict[str, Any]):
     return read_frame_with_connections(ifc_io.open_model(path), config, str(path))
 
 
-def _find_joints(frame, config: dict[str, Any]):
-    from engine.joints import find_joints
-    from engine.tolerances import Tolerances
-
-    return find_joints(
-        frame.members,
-        frame.bearings,
-        frame.connections,
-        tolerances=Tolerances.from_config(config.get("tolerances", {})),
-        policy=config["support"]["policy"],
-    )
-
-
 def _format_joint_rows(rows: list[dict[str, Any]], unresolved: list[dict[str, Any]]) -> str:
     lines = [f"joints         {len(rows)}"]
     for r in rows:
@@ -150,7 +137,9 @@ def _cmd_inspect(args: argparse.Namespace) -> int:
     if args.joints:
         from engine.joints import joint_rows
 
-        finding = _find_joints(frame, config)
+        from engine.audit import find_frame_joints
+
+        finding = find_frame_joints(frame, config)
         rows = joint_rows(finding, frame.members)
         unresolved = [dataclasses.asdict(u) for u in finding.unresolved]
         out["joints"] = rows

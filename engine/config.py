@@ -10,11 +10,12 @@ from __future__ import annotations
 import copy
 import tomllib
 from pathlib import Path
-from typing import Any
+from typing import Any, Mapping
 
 from engine.errors import ConfigError
 
-__all__ = ["DEFAULTS", "DEFAULT_GRADE_BY_CODE", "DEFAULT_PLATE_GRADE_BY_CODE", "DEFAULT_ELECTRODE_BY_CODE", "load_config", "merge_config", "dumps_toml"]
+__all__ = ["DEFAULTS", "DEFAULT_GRADE_BY_CODE", "DEFAULT_PLATE_GRADE_BY_CODE", "DEFAULT_ELECTRODE_BY_CODE",
+           "member_grade", "plate_grade", "weld_electrode", "load_config", "merge_config", "dumps_toml"]
 
 DEFAULTS: dict[str, Any] = {
     "code": "as4100",
@@ -62,6 +63,24 @@ MAX_TOLERANCE_MM = 10_000.0
 """Largest joint tolerance in mm a config may set (10 m; the defaults are tens of mm)."""
 MAX_WELD_LEG_MM = 100.0
 """Largest assumed fillet weld leg a config may set."""
+
+def member_grade(cfg: Mapping[str, Any]) -> str:
+    """Grade assumed for members the model gives none: ``materials.default_grade``, else the code's
+    usual grade (:data:`DEFAULT_GRADE_BY_CODE`), else ``"default"``."""
+    return cfg["materials"]["default_grade"] or DEFAULT_GRADE_BY_CODE.get(cfg["code"], "default")
+
+
+def plate_grade(cfg: Mapping[str, Any]) -> str:
+    """Plate grade for scheduled or proposed plates: ``materials.plate_grade``, else the code's usual
+    plate grade (:data:`DEFAULT_PLATE_GRADE_BY_CODE`)."""
+    return cfg["materials"]["plate_grade"] or DEFAULT_PLATE_GRADE_BY_CODE.get(cfg["code"], "")
+
+
+def weld_electrode(cfg: Mapping[str, Any]) -> str:
+    """Electrode assumed where the model gives none: ``connections.weld_electrode``, else the code's
+    usual electrode (:data:`DEFAULT_ELECTRODE_BY_CODE`)."""
+    return cfg["connections"]["weld_electrode"] or DEFAULT_ELECTRODE_BY_CODE.get(cfg["code"], "")
+
 
 _AREA_LOAD_KEYS = {"storey": str, "dead_kPa": (int, float), "live_kPa": (int, float)}
 _DEMAND_SOURCES = ("model", "schedule", "tributary", "capacity-fraction")

@@ -23,7 +23,7 @@ from typing import Any, Mapping, Sequence
 import ifcopenshell
 
 from engine.audit import AuditOutcome, Progress, run_audit
-from engine.config import DEFAULT_GRADE_BY_CODE, load_config, merge_config
+from engine.config import load_config, member_grade, merge_config, plate_grade, weld_electrode
 from engine.errors import BadInputError
 from engine.model import Frame
 
@@ -40,8 +40,7 @@ def read_frame_with_connections(model: ifcopenshell.file, config: Mapping[str, A
     from ifc_io import read_frame
     from ifc_io.connectivity import read_explicit_connections
 
-    grade = config["materials"]["default_grade"] or DEFAULT_GRADE_BY_CODE.get(config["code"], "default")
-    frame = read_frame(model, default_steel=grade, config=dict(config))
+    frame = read_frame(model, default_steel=member_grade(config), config=dict(config))
     if file_label:
         frame = dataclasses.replace(frame, file=file_label)
     from ifc_io.read_analysis import read_linked_reactions
@@ -96,7 +95,6 @@ def _header_file_name(model: ifcopenshell.file) -> str:
 
 def design_space_for(cfg: Mapping[str, Any], lookup_steel):
     """The ``--design`` candidate table of the configured code, with its plate steel and electrode."""
-    from engine.config import DEFAULT_ELECTRODE_BY_CODE, DEFAULT_PLATE_GRADE_BY_CODE
     from engine.design import DesignSpace
     from engine.errors import ConfigError
     from rules.tables import load_table
@@ -104,12 +102,11 @@ def design_space_for(cfg: Mapping[str, Any], lookup_steel):
     table = load_table("design_space").get(cfg["code"])
     if table is None:
         raise ConfigError(f"--design has no candidate table for code {cfg['code']!r} (rules/data/design_space.toml)")
-    grade = cfg["materials"]["plate_grade"] or DEFAULT_PLATE_GRADE_BY_CODE.get(cfg["code"], "")
+    grade = plate_grade(cfg)
     steel = lookup_steel(grade)
     if steel is None:
         raise ConfigError(f"plate grade {grade!r} for --design is not a known steel grade")
-    electrode = cfg["connections"]["weld_electrode"] or DEFAULT_ELECTRODE_BY_CODE.get(cfg["code"], "")
-    return DesignSpace.from_table(table, electrode, steel)
+    return DesignSpace.from_table(table, weld_electrode(cfg), steel)
 
 
 def audit_model(
