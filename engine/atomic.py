@@ -11,11 +11,11 @@ from __future__ import annotations
 import os
 import tempfile
 from pathlib import Path
-from typing import Callable, Sequence
+from typing import Callable, Iterable, Sequence
 
 from engine.errors import OutputError
 
-__all__ = ["write_atomic", "write_atomic_with", "write_all_atomic", "refuse_input_overwrite"]
+__all__ = ["write_atomic", "write_atomic_with", "write_all_atomic", "refuse_input_overwrite", "parts_writer"]
 
 
 def refuse_input_overwrite(target: str | os.PathLike[str], inputs: list[str | os.PathLike[str]]) -> None:
@@ -58,6 +58,21 @@ def _bytes_writer(data: bytes | str) -> Callable[[str], None]:
     def _write(tmp: str) -> None:
         with open(tmp, "wb") as fh:
             fh.write(payload)
+            fh.flush()
+            os.fsync(fh.fileno())
+
+    return _write
+
+
+def parts_writer(parts: Iterable[bytes | str]) -> Callable[[str], None]:
+    """A writer (for :func:`write_all_atomic`) that writes ``parts`` one after the other (text as
+    UTF-8), so a large output never has to be held whole in memory. The parts are produced while
+    the file is written: an error in producing them leaves no output, like any other write error."""
+
+    def _write(tmp: str) -> None:
+        with open(tmp, "wb") as fh:
+            for part in parts:
+                fh.write(part.encode("utf-8") if isinstance(part, str) else part)
             fh.flush()
             os.fsync(fh.fileno())
 

@@ -165,5 +165,6 @@ def run_audit(
     doc = results_document(
         results, frame, members, code=config["code"], code_title=getattr(ruleset, "title", ""),
         baseline=marks, removed=removed, run_date=run_date, config=config, warnings=warnings,
+        baseline_was={jid: str(j.get("status")) for jid, j in baseline.items()} if baseline is not None else None,
     )
     return AuditOutcome(tuple(results), doc, finding, members, tuple(warnings), frame)

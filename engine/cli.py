@@ -16,7 +16,7 @@ import json
 import os
 import sys
 from pathlib import Path
-from typing import Any, Sequence
+from typing import Any, Iterator, Sequence
 
 from engine import __version__
 from engine.cautions import CAUTION
@@ -81,6 +81,9 @@ def build_parser() -> argparse.ArgumentParser:
     p.add_argument("--baseline", metavar="OLD/results.json", help="mark each joint new / open / resolved against an earlier run")
     p.add_argument("--out", metavar="DIR", default="joint-audit-out", help="output folder (default: %(default)s)")
     p.add_argument("--bcf-version", choices=("2.1", "3.0"), default="2.1", help="BCF version to write (default: %(default)s)")
+    p.add_argument("--needs-design-topics", choices=("per-storey", "per-joint"), default="per-storey",
+                   help="BCF topics for joints that need a connection designed: one per storey listing its joints, "
+                   "or one per joint (default: %(default)s; failing and incomplete joints always get one each)")
     p.add_argument("--show-config", action="store_true", help="print the effective configuration as TOML and stop")
 
     p = sub.add_parser(
@@ -191,16 +194,17 @@ class _ProgressBar:
 
 
 def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str | None, schedules: list[str],
-               baseline_path: str | None, bcf_version: str, design: bool = False) -> int:
+               baseline_path: str | None, bcf_version: str, design: bool = False,
+               needs_design_topics: str = "per-storey") -> int:
     import ifc_io
     from ifc_io.library import audit_model
     from ifc_io.write_bcf import bcf_archive
     from ifc_io.write_psets_text import write_model_with_psets
 
-    from engine.atomic import refuse_input_overwrite, write_all_atomic
+    from engine.atomic import parts_writer, refuse_input_overwrite, write_all_atomic
     from engine.raster import to_png
     from engine.report_drawings import elevation_for, issue_drawings
-    from engine.report_html import render_report
+    from engine.report_html import report_parts
     from engine.results import read_baseline, schedule_csv
 
     # everything that can fail on bad input happens before anything is written
@@ -212,7 +216,7 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
     bar.done()
     doc = outcome.doc
     drawings, symbols = issue_drawings(outcome.results, outcome.members)
-    html = render_report(doc, drawings, symbols)
+    html = parts_writer(report_parts(doc, drawings, symbols))
     # BCF snapshots of the connections that exist (a joint that needs design has nothing to show)
     snapshots = {r.joint.id: to_png(elevation_for(r, outcome.members[r.joint.beam]))
                  for r in outcome.results if r.joint.id in drawings and r.connection is not None}
@@ -220,7 +224,8 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
     # a damaged file may hold something other than text in the project's GlobalId or Name
     guid, name = (project[0].GlobalId, project[0].Name) if project else (None, "")
     bcf = bcf_archive(doc, version=bcf_version, project_guid=guid if isinstance(guid, str) else None,
-                      project_name=name if isinstance(name, str) else "", snapshots=snapshots)
+                      project_name=name if isinstance(name, str) else "", snapshots=snapshots,
+                      needs_design=needs_design_topics)
 
     out = _prepare_out_dir(out_dir)
     stem = Path(model_path).stem
@@ -235,7 +240,7 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
         refuse_input_overwrite(t, [model_path] + ([baseline_path] if baseline_path else []) + list(schedules))
     # all or nothing: every output is written to a temporary file before any is renamed into place
     write_all_atomic([
-        (targets["results"], _results_json(doc)),
+        (targets["results"], parts_writer(_results_json(doc))),
         (targets["schedule"], schedule_csv(doc)),
         (targets["report"], html),
         (targets["bcf"], bcf),
@@ -256,13 +261,19 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
     return 1 if s["fail"] or s["needs-design"] else 0
 
 
-def _results_json(doc: dict[str, Any]) -> str:
-    """results.json text: the document with one joint per line (readable, and fast to write for
-    large models, since each line goes through the C JSON encoder)."""
+def _results_json(doc: dict[str, Any]) -> Iterator[str]:
+    """results.json text, in pieces: the document with one joint per line (readable, and fast to
+    write for large models: each line goes through the C JSON encoder, and the whole text is never
+    held in memory). Text outside ASCII is written as JSON escapes."""
     head = {k: v for k, v in doc.items() if k != "joints"}
-    joints = ",\n".join("  " + json.dumps(j, ensure_ascii=False) for j in doc["joints"])
-    text = json.dumps(head, indent=1, ensure_ascii=False)
-    return text[:-2] + ',\n "joints": [\n' + joints + "\n ]\n}\n"
+    text = json.dumps(head, indent=1)
+    yield text[:-2] + ',\n "joints": [\n'
+    encode = json.JSONEncoder(check_circular=False).encode
+    joints = doc["joints"]
+    for i in range(0, len(joints), 2000):
+        chunk = ",\n".join("  " + encode(j) for j in joints[i:i + 2000])
+        yield (",\n" if i else "") + chunk
+    yield "\n ]\n}\n"
 
 
 def _cmd_audit(args: argparse.Namespace) -> int:
@@ -277,7 +288,7 @@ def _cmd_audit(args: argparse.Namespace) -> int:
     if not args.model:
         raise UsageError("audit needs MODEL.ifc (or --show-config)")
     return _run_audit(args.model, args.out, args.config, args.code, args.schedule, args.baseline, args.bcf_version,
-                      args.design)
+                      args.design, args.needs_design_topics)
 
 
 def _cmd_demo(args: argparse.Namespace) -> int:

@@ -1,6 +1,7 @@
 """The drawings of the issue list and the BCF snapshots, from the audit's results.
 
-For each issue joint: the connection elevation (plate, bolts, beam web and cope, elastic bolt forces
+For each failing or incomplete joint (a joint that needs design has no connection to draw: the issue
+list gives it one table row): the connection elevation (plate, bolts, beam web and cope, elastic bolt forces
 for the governing hinge position, the hinge marked) and the storey plan marking the joint. Plans are
 drawn once per storey as an SVG ``<symbol>`` and reused by every issue on that storey, so a large
 model's page stays small.
@@ -74,9 +75,10 @@ def _storey_key(storey: str) -> str:
 def issue_drawings(
     results: Sequence[JointResult], members: Mapping[str, Member]
 ) -> tuple[dict[str, dict[str, str]], str]:
-    """SVG drawings for every issue joint: ``({joint id: {"elevation", "plan"}}, symbols_html)``
-    where ``symbols_html`` is a hidden SVG holding one plan symbol per storey with issues."""
-    issues = [r for r in results if r.status in ISSUE_STATUSES]
+    """SVG drawings for every failing or incomplete joint: ``({joint id: {"elevation", "plan"}},
+    symbols_html)`` where ``symbols_html`` is a hidden SVG holding one plan symbol per storey with
+    such joints."""
+    issues = [r for r in results if r.status in ISSUE_STATUSES and r.status != "needs-design"]
     storeys = sorted({members[r.joint.beam].storey for r in issues})
     by_storey: dict[str, list[Member]] = defaultdict(list)
     for m in members.values():

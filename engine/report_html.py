@@ -1,11 +1,17 @@
 """The HTML issue list: one self-contained page (no external assets, works offline, prints well).
 
 Every joint whose status is ``fail``, ``needs-design`` or ``incomplete`` is an issue, numbered by its
-stable joint id, with the two members (names and GlobalIds), storey and location, demand and its
-source, governing check and utilisation, every check with its clause, the stiffness reasons, and two
-drawings (the connection elevation and the storey plan marking the joint). The page filters by
-status, storey and kind and sorts by utilisation by itself (a few lines of inline script); without
-script every issue is simply listed.
+stable joint id. A failing or incomplete joint gets a full entry: the two members (names and
+GlobalIds), storey and location, demand and its source, governing check and utilisation, every check
+with its clause, the stiffness reasons, and two drawings (the connection elevation and the storey
+plan marking the joint). A joint that needs design has no connection to draw or check, so it is one
+row of a table (members, kind, stiffness and why, storey, end shear, copes): a model with no
+connections yet has tens of thousands of them, and a page of full entries would not open. The page
+filters by status, storey and kind and sorts by utilisation by itself (a few lines of inline script);
+without script every issue is simply listed.
+
+The page is produced in pieces (:func:`report_parts`) so that a large one can be written to disk
+without holding it whole in memory.
 
 All text that comes from the model or the inputs is escaped.
 
@@ -16,12 +22,12 @@ precedence.
 from __future__ import annotations
 
 from html import escape
-from typing import Any, Mapping
+from typing import Any, Iterator, Mapping
 
 from engine.cautions import CAUTION
 from engine.evaluate import ISSUE_STATUSES
 
-__all__ = ["render_report", "issue_joints"]
+__all__ = ["render_report", "report_parts", "issue_joints"]
 
 _CSS = """
 body{font:15px/1.45 system-ui,-apple-system,"Segoe UI",Roboto,sans-serif;color:#1d1d1d;margin:0;background:#fbfbf8}
@@ -46,6 +52,8 @@ th{background:#efefea} td.num,th.num{text-align:right;font-variant-numeric:tabul
 .drawings{display:flex;flex-wrap:wrap;gap:16px;margin-top:8px} figure{margin:0} figcaption{color:#555;font-size:.85em}
 tr.failed td{color:#8e1b12;font-weight:600} tr.incomplete td{color:#3d5a80}
 code{font-size:.9em}
+table.nd{width:100%;background:#fff;font-size:.9em} table.nd tr.issue td:first-child{border-left:6px solid #8a6d00}
+table.nd td.why{color:#555;max-width:260px}
 .none{padding:20px;background:#fff;border:1px solid #ddd}
 @media print{.controls{display:none} body{background:#fff} .issue{border-color:#999}}
 """
@@ -53,7 +61,8 @@ code{font-size:.9em}
 _JS = """
 (function(){
   var list=document.getElementById('issues'); if(!list) return;
-  var items=Array.prototype.slice.call(list.querySelectorAll('.issue'));
+  var items=Array.prototype.slice.call(document.querySelectorAll('.issue'));
+  var arts=Array.prototype.slice.call(list.querySelectorAll('article.issue'));
   var fs=document.getElementById('f-status'), fst=document.getElementById('f-storey'),
       fk=document.getElementById('f-kind'), sortb=document.getElementById('sort-util'),
       count=document.getElementById('shown-count'), desc=true;
@@ -67,9 +76,9 @@ _JS = """
     count.textContent=n;
   }
   function sort(){
-    items.sort(function(a,b){var x=parseFloat(a.dataset.util)||-1, y=parseFloat(b.dataset.util)||-1;
+    arts.sort(function(a,b){var x=parseFloat(a.dataset.util)||-1, y=parseFloat(b.dataset.util)||-1;
       return desc? y-x : x-y;});
-    items.forEach(function(el){list.appendChild(el);});
+    arts.forEach(function(el){list.appendChild(el);});
     sortb.textContent='Utilisation '+(desc?'\\u2193 highest first':'\\u2191 lowest first');
     desc=!desc;
   }
@@ -162,9 +171,42 @@ def _issue(j: Mapping[str, Any], drawings: Mapping[str, str]) -> str:
     )
 
 
-def render_report(doc: Mapping[str, Any], drawings: Mapping[str, Mapping[str, str]] | None = None, symbols: str = "") -> str:
-    """The whole HTML page for a results document. ``drawings`` maps joint id →
-    ``{"elevation": svg, "plan": svg}`` (SVG made by this program, inserted as is)."""
+_ND_HEAD = (
+    "<h2>Joints that need a connection designed</h2>"
+    "<p class='meta'>No connection is modelled or scheduled at these beam ends: each needs one designed "
+    "(or scheduled) for the end shear shown, then a new audit.</p>"
+    "<table class='nd'><thead><tr><th>issue</th><th>beam</th><th>support</th><th>joint</th><th>storey</th>"
+    "<th class='num'>V* kN</th><th>copes, note</th></tr></thead><tbody id='needs-design'>"
+)
+
+
+def _needs_design_row(j: Mapping[str, Any]) -> str:
+    d = j.get("demand")
+    shear = "–" if d is None or d.get("V_kN") is None else _fmt(d["V_kN"], 1)
+    src = "" if d is None else f"<br><small>{escape(d['source'])}</small>"
+    copes = (j.get("geometry") or {}).get("copes") or []
+    cope_txt = "; ".join(f"{escape(str(c.get('where')))} cope {_fmt(c.get('depth'), 0)} x {_fmt(c.get('length'), 0)} mm"
+                         for c in copes)
+    note = "; ".join(x for x in (cope_txt, escape(j.get("note") or "")) if x)
+    baseline = f' <span class="tag">{escape(j["baseline"])}</span>' if j.get("baseline") else ""
+    reasons = escape("; ".join(j.get("stiffness_reasons") or []))
+    return (
+        f'<tr class="issue" id="{escape(j["id"], quote=True)}" data-status="needs-design" '
+        f'data-storey="{escape(j.get("storey") or "", quote=True)}" data-kind="{escape(j["kind"], quote=True)}" data-util="">'
+        f'<td><code>{escape(j["id"])}</code>{baseline}</td>'
+        f'<td>{escape(j["end"])} of {escape(j.get("beam_name") or "")} {escape(j.get("beam_section") or "")}<br><code>{escape(j["beam"])}</code></td>'
+        f'<td>{escape(j.get("support_name") or "")} {escape(j.get("support_section") or "")}<br><code>{escape(j.get("support") or "none")}</code></td>'
+        f'<td>{escape(j["kind"])}, {escape(j["stiffness"])}<br><small class="why">{reasons}</small></td>'
+        f'<td>{escape(j.get("storey") or "–")}</td><td class="num">{shear}{src}</td><td>{note}</td></tr>'
+    )
+
+
+def report_parts(
+    doc: Mapping[str, Any], drawings: Mapping[str, Mapping[str, str]] | None = None, symbols: str = ""
+) -> Iterator[str]:
+    """The HTML page for a results document, in pieces (join them, or write them one after the
+    other). ``drawings`` maps joint id → ``{"elevation": svg, "plan": svg}`` (SVG made by this
+    program, inserted as is)."""
     drawings = drawings or {}
     issues = issue_joints(doc)
     s = doc["summary"]
@@ -173,14 +215,8 @@ def render_report(doc: Mapping[str, Any], drawings: Mapping[str, Mapping[str, st
     statuses = [st for st in ISSUE_STATUSES if any(j["status"] == st for j in issues)]
     summary_cells = "".join(f"<th class='num'>{escape(k)}</th>" for k in ("joints", "pass", "fail", "needs-design", "incomplete", "not-checked"))
     summary_vals = "".join(f"<td class='num'>{s.get(k, 0)}</td>" for k in ("joints", "pass", "fail", "needs-design", "incomplete", "not-checked"))
-    body = "".join(_issue(j, drawings.get(j["id"], {})) for j in issues)
-    removed = doc.get("baseline_removed") or []
-    removed_html = ""
-    if removed:
-        items = "".join(f"<li><code>{escape(r['id'])}</code> beam <code>{escape(str(r.get('beam')))}</code> ({escape(str(r.get('end')))}) — was {escape(str(r.get('status')))}, joint no longer in the model</li>" for r in removed)
-        removed_html = f"<h2>Resolved since the baseline (joint removed)</h2><ul>{items}</ul>"
     model = doc["model"]
-    return (
+    yield (
         "<!DOCTYPE html><html lang='en'><head><meta charset='utf-8'>"
         f"<title>Connection audit — {escape(model['file'])}</title>"
         "<meta name='viewport' content='width=device-width, initial-scale=1'>"
@@ -200,9 +236,38 @@ def render_report(doc: Mapping[str, Any], drawings: Mapping[str, Mapping[str, st
         "<button type='button' id='sort-util'>Utilisation ↓ highest first</button>"
         f"<span><strong id='shown-count'>{len(issues)}</strong> of {len(issues)} issues shown</span>"
         "</div>"
-        + (f"<section id='issues'>{body}</section>" if issues else "<p class='none'>No issues: every checked joint passes.</p><section id='issues'></section>")
-        + removed_html
-        + "</main><footer><p class='meta'>Generated by joint-audit. Drawings are schematic. "
+    )
+    if not issues:
+        yield "<p class='none'>No issues: every checked joint passes.</p><section id='issues'></section>"
+    else:
+        yield "<section id='issues'>"
+        batch: list[str] = []
+        needs_design = []
+        for j in issues:
+            if j["status"] == "needs-design":
+                needs_design.append(j)
+                continue
+            batch.append(_issue(j, drawings.get(j["id"], {})))
+            if len(batch) >= 500:
+                yield "".join(batch)
+                batch = []
+        yield "".join(batch) + "</section>"
+        if needs_design:
+            yield _ND_HEAD
+            for i in range(0, len(needs_design), 1000):
+                yield "".join(_needs_design_row(j) for j in needs_design[i:i + 1000])
+            yield "</tbody></table>"
+    removed = doc.get("baseline_removed") or []
+    if removed:
+        items = "".join(f"<li><code>{escape(r['id'])}</code> beam <code>{escape(str(r.get('beam')))}</code> ({escape(str(r.get('end')))}) — was {escape(str(r.get('status')))}, joint no longer in the model</li>" for r in removed)
+        yield f"<h2>Resolved since the baseline (joint removed)</h2><ul>{items}</ul>"
+    yield (
+        "</main><footer><p class='meta'>Generated by joint-audit. Drawings are schematic. "
         f"{escape(CAUTION)}</p></footer>"
         f"<script>{_JS}</script></body></html>"
     )
+
+
+def render_report(doc: Mapping[str, Any], drawings: Mapping[str, Mapping[str, str]] | None = None, symbols: str = "") -> str:
+    """The whole HTML page for a results document (:func:`report_parts` joined)."""
+    return "".join(report_parts(doc, drawings, symbols))

@@ -95,8 +95,11 @@ def results_document(
     run_date: str = "",
     config: Mapping[str, Any] | None = None,
     warnings: Sequence[Any] = (),
+    baseline_was: Mapping[str, str] | None = None,
 ) -> dict[str, Any]:
-    """The results.json document for one audit run."""
+    """The results.json document for one audit run. ``baseline_was`` (joint id → status in the
+    baseline run) adds ``baseline_was`` to each joint resolved since then, so the BCF writer can
+    close the topic the issue had (one per joint, or its storey's group of joints needing design)."""
     summary = {"joints": len(results), **{s: 0 for s in STATUSES}}
     joints = []
     for res in sorted(results, key=lambda r: r.joint.id):
@@ -146,6 +149,8 @@ def results_document(
                 "baseline": (baseline or {}).get(j.id) if baseline is not None else None,
             }
         )
+        if baseline_was and joints[-1]["baseline"] == "resolved":
+            joints[-1]["baseline_was"] = baseline_was.get(j.id)
     return {
         "tool": {"name": "joint-audit", "version": __version__},
         "caution": CAUTION,

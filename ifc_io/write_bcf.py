@@ -1,8 +1,13 @@
 """Write the audit's issues as a BCF file (buildingSMART BCF-XML 2.1, or 3.0 on request).
 
-One topic per issue joint (status ``fail``, ``needs-design`` or ``incomplete``), plus a *closed* topic
-for each issue of a baseline run that is now resolved, so a coordination tool that re-imports the file
-updates its topics instead of piling up duplicates:
+One topic per failing or incomplete joint. Joints that need design are, by default, one topic per
+storey (``needs_design="per-storey"``) selecting every beam of that storey with an end that needs a
+connection designed, its description listing the joints: a model with no connections yet has
+thousands of them, which as separate topics would bury the real failures in a coordination tool and
+make the file too large for it to load; ``needs_design="per-joint"`` gives each its own topic. A
+baseline run's issues that are now resolved get a *closed* topic (a storey's group is closed once no
+joint on it needs design), so a coordination tool that re-imports the file updates its topics instead
+of piling up duplicates:
 
 * topic, viewpoint and comment GUIDs derive from the joint id (uuid5 in a namespace of our own), so a
   re-run writes the same GUIDs;
@@ -33,9 +38,10 @@ from lxml import etree
 
 from engine.errors import OutputError
 
-__all__ = ["topic_guid", "bcf_archive", "BCF_VERSIONS", "ISSUE_STATUSES"]
+__all__ = ["topic_guid", "storey_topic_guid", "bcf_archive", "BCF_VERSIONS", "ISSUE_STATUSES", "NEEDS_DESIGN_TOPICS"]
 
 BCF_VERSIONS = ("2.1", "3.0")
+NEEDS_DESIGN_TOPICS = ("per-storey", "per-joint")
 ISSUE_STATUSES = ("fail", "needs-design", "incomplete")
 _NS = uuid.UUID("0d6f4a0e-3c1b-5e7a-9b8c-5a4d3e2f1b0c")
 _AUTHOR = "joint-audit"
@@ -50,6 +56,11 @@ _TITLES = {
 def topic_guid(joint_id: str) -> str:
     """The BCF topic GUID of a joint's issue (lower-case, stable across runs)."""
     return str(uuid.uuid5(_NS, f"topic|{joint_id}"))
+
+
+def storey_topic_guid(storey: str) -> str:
+    """The BCF topic GUID of a storey's group of joints that need design (stable across runs)."""
+    return str(uuid.uuid5(_NS, f"topic|needs-design-storey|{storey}"))
 
 
 def _guid(joint_id: str, what: str) -> str:
@@ -81,13 +92,14 @@ def _fmt(x: float) -> str:
     return f"{x:.6f}".rstrip("0").rstrip(".") if x != 0 else "0"
 
 
-def _camera(location_mm: Sequence[float]) -> tuple[tuple[float, ...], tuple[float, ...], tuple[float, ...]]:
-    """A perspective camera 4 m back along (-1, -1, +0.6) from the joint, looking at it (metres)."""
+def _camera(location_mm: Sequence[float], back_m: float = 4.0) -> tuple[tuple[float, ...], tuple[float, ...], tuple[float, ...]]:
+    """A perspective camera ``back_m`` (4 m) back along (-1, -1, +0.6) from the point, looking at it
+    (metres)."""
     target = [v / 1000.0 for v in location_mm]
     d = (1.0, 1.0, -0.6)
     n = math.sqrt(sum(c * c for c in d))
     d = tuple(c / n for c in d)
-    eye = tuple(t - 4.0 * c for t, c in zip(target, d))
+    eye = tuple(t - back_m * c for t, c in zip(target, d))
     # up vector: world Z made orthogonal to the view direction
     z = (0.0, 0.0, 1.0)
     dot = sum(a * b for a, b in zip(z, d))
@@ -131,8 +143,17 @@ def _labels(j: Mapping[str, Any]) -> list[str]:
 
 def _markup(j: Mapping[str, Any], doc: Mapping[str, Any], version: str, date: str, project_guid: str | None,
             closed: bool, snapshot: bool) -> bytes:
-    """markup.bcf of one topic (built as text: this runs once per issue on large models)."""
+    """markup.bcf of one joint's topic."""
     jid = j["id"]
+    title = f"{'Resolved: ' if closed else ''}{_TITLES.get(j['status'], 'Connection issue')} — {j['end']} of {j.get('beam_name') or j['beam']}"
+    return _topic_xml(topic_guid(jid), _guid(jid, "viewpoint"), _guid(jid, "comment"), title, _labels(j),
+                      _describe(j), doc, version, date, project_guid, closed, snapshot)
+
+
+def _topic_xml(guid: str, vp_guid: str, comment_guid: str, title: str, labels: Sequence[str], description: str,
+               doc: Mapping[str, Any], version: str, date: str, project_guid: str | None, closed: bool,
+               snapshot: bool) -> bytes:
+    """markup.bcf of one topic (built as text: this runs once per issue on large models)."""
     v3 = version == "3.0"
     status = "Closed" if closed else "Open"
     when = _t(date or "1970-01-01T00:00:00Z")
@@ -141,19 +162,15 @@ def _markup(j: Mapping[str, Any], doc: Mapping[str, Any], version: str, date: st
     file_el = (f"<File{proj} {ext}=\"true\"><Filename>{_t(doc['model']['file'])}</Filename>"
                + (f"<Date>{_t(date)}</Date>" if date else "") + "</File>")
     header = f"<Header><Files>{file_el}</Files></Header>" if v3 else f"<Header>{file_el}</Header>"
-    title = f"{'Resolved: ' if closed else ''}{_TITLES.get(j['status'], 'Connection issue')} — {j['end']} of {j.get('beam_name') or j['beam']}"
-    labels = _labels(j)
     if v3:
         label_xml = "<Labels>" + "".join(f"<Label>{_t(x)}</Label>" for x in labels) + "</Labels>"
     else:
         label_xml = "".join(f"<Labels>{_t(x)}</Labels>" for x in labels)
-    description = _describe(j)
-    vp_guid = _guid(jid, "viewpoint")
-    comment = (f"<Comment Guid=\"{_guid(jid, 'comment')}\"><Date>{when}</Date><Author>{_AUTHOR}</Author>"
+    comment = (f"<Comment Guid=\"{comment_guid}\"><Date>{when}</Date><Author>{_AUTHOR}</Author>"
                f"<Comment>{_t(('Resolved in this run: ' if closed else '') + description)}</Comment>"
                f"<Viewpoint Guid=\"{vp_guid}\"/></Comment>")
     vp_inner = "<Viewpoint>viewpoint.bcfv</Viewpoint>" + ("<Snapshot>snapshot.png</Snapshot>" if snapshot else "")
-    topic_open = (f"<Topic Guid=\"{topic_guid(jid)}\" TopicType=\"Structural connection\" TopicStatus=\"{status}\">"
+    topic_open = (f"<Topic Guid=\"{guid}\" TopicType=\"Structural connection\" TopicStatus=\"{status}\">"
                   f"<Title>{_t(title)}</Title>{label_xml}<CreationDate>{when}</CreationDate>"
                   f"<CreationAuthor>{_AUTHOR}</CreationAuthor><Description>{_t(description)}</Description>")
     if v3:
@@ -169,14 +186,60 @@ def _xyz(tag: str, v: Sequence[float]) -> str:
 
 
 def _visinfo(j: Mapping[str, Any], version: str) -> bytes:
-    """viewpoint.bcfv of one topic: the beam and its support selected, a camera on the joint."""
-    comps = "".join(f"<Component IfcGuid={_a(g)}/>" for g in (j["beam"], j.get("support")) if g)
-    eye, direction, up = _camera(j.get("location_mm") or (0.0, 0.0, 0.0))
+    """viewpoint.bcfv of one joint's topic: the beam and its support selected, a camera on the joint."""
+    return _visinfo_xml(_guid(j["id"], "viewpoint"), [g for g in (j["beam"], j.get("support")) if g],
+                        _camera(j.get("location_mm") or (0.0, 0.0, 0.0)), version)
+
+
+def _visinfo_xml(guid: str, components: Sequence[str], camera, version: str) -> bytes:
+    comps = "".join(f"<Component IfcGuid={_a(g)}/>" for g in components)
+    eye, direction, up = camera
     cam = (_xyz("CameraViewPoint", eye) + _xyz("CameraDirection", direction) + _xyz("CameraUpVector", up)
            + "<FieldOfView>60</FieldOfView>" + ("<AspectRatio>1.5</AspectRatio>" if version == "3.0" else ""))
-    return (_DECL + f"<VisualizationInfo Guid=\"{_guid(j['id'], 'viewpoint')}\"><Components>"
+    return (_DECL + f"<VisualizationInfo Guid=\"{guid}\"><Components>"
             f"<Selection>{comps}</Selection><Visibility DefaultVisibility=\"true\"/></Components>"
             f"<PerspectiveCamera>{cam}</PerspectiveCamera></VisualizationInfo>\n").encode("utf-8")
+
+
+def _group_labels(storey: str) -> list[str]:
+    return ["joint-audit", "needs-design"] + ([storey] if storey else [])
+
+
+def _group_topic(storey: str, joints: Sequence[Mapping[str, Any]], doc: Mapping[str, Any], version: str, date: str,
+                 project_guid: str | None, closed: bool) -> tuple[bytes, bytes]:
+    """markup.bcf and viewpoint.bcfv of a storey's group of joints that need design (``closed``:
+    none does any more; ``joints`` are then the ones resolved since the baseline)."""
+    guid = storey_topic_guid(storey)
+    where = storey or "no storey"
+    n = len(joints)
+    if closed:
+        title = f"Resolved: connections need design — {where}"
+        description = (f"No beam end on {where} needs a connection designed any more; {n} did in the baseline run "
+                       f"and are resolved.")
+    else:
+        kinds: dict[str, int] = {}
+        for j in joints:
+            kinds[j["kind"]] = kinds.get(j["kind"], 0) + 1
+        shears = [j["demand"]["V_kN"] for j in joints if j.get("demand") and j["demand"].get("V_kN") is not None]
+        title = f"Connections need design — {where}: {n} beam end{'s' if n != 1 else ''}"
+        description = (
+            f"{n} beam end{'s' if n != 1 else ''} on {where} have no connection modelled or scheduled; each needs one "
+            f"designed for its end shear"
+            + (f" (largest V* = {max(shears):g} kN)" if shears else "") + ". By kind: "
+            + ", ".join(f"{k} {c}" for k, c in sorted(kinds.items())) + ". Joints (id: end of beam on support): "
+            + "; ".join(f"{j['id']}: {j['end']} of {j.get('beam_name') or j['beam']} on "
+                        f"{j.get('support_name') or j.get('support') or 'no support'}" for j in joints)
+            + ". Each joint is listed in issues.html and results.json. "
+            "joint-audit is an aid to a competent engineer; check this result.")
+    markup = _topic_xml(guid, _guid(guid, "viewpoint"), _guid(guid, "comment"), title, _group_labels(storey),
+                        description, doc, version, date, project_guid, closed, False)
+    beams = list(dict.fromkeys(j["beam"] for j in joints))
+    locs = [j.get("location_mm") or (0.0, 0.0, 0.0) for j in joints]
+    lo = [min(p[i] for p in locs) for i in range(3)]
+    hi = [max(p[i] for p in locs) for i in range(3)]
+    centre = [(a + b) / 2.0 for a, b in zip(lo, hi)]
+    extent_m = max(b - a for a, b in zip(lo, hi)) / 1000.0
+    return markup, _visinfo_xml(_guid(guid, "viewpoint"), beams, _camera(centre, 4.0 + extent_m), version)
 
 
 def _version(version: str) -> bytes:
@@ -232,28 +295,57 @@ def bcf_archive(
     project_guid: str | None = None,
     project_name: str = "",
     snapshots: Mapping[str, bytes] | None = None,
+    needs_design: str = "per-storey",
 ) -> bytes:
-    """The BCF zip (bytes) for the results document ``doc``: one topic per issue joint, plus closed
-    topics for the baseline's resolved issues. ``snapshots`` maps joint id → PNG bytes."""
+    """The BCF zip (bytes) for the results document ``doc``: a topic per failing or incomplete joint,
+    the joints that need design one topic per storey (``needs_design="per-storey"``) or per joint
+    (``"per-joint"``), and closed topics for the baseline's resolved issues. ``snapshots`` maps joint
+    id → PNG bytes."""
     if version not in BCF_VERSIONS:
         raise OutputError(f"BCF version {version!r} is not supported (use {' or '.join(BCF_VERSIONS)})")
+    if needs_design not in NEEDS_DESIGN_TOPICS:
+        raise OutputError(f"BCF topics for joints that need design: {needs_design!r} is not one of "
+                          f"{', '.join(NEEDS_DESIGN_TOPICS)}")
+    grouped = needs_design == "per-storey"
     date = (doc.get("run") or {}).get("date") or ""
     zt = _zip_time(date)
     snapshots = snapshots or {}
     entries: list[tuple[str, bytes | None]] = [("bcf.version", _version(version)),
                                                ("project.bcfp", _project(doc, version, project_guid, project_name))]
-    topics: list[tuple[Mapping[str, Any], bool]] = [(j, False) for j in doc["joints"] if j["status"] in ISSUE_STATUSES]
-    topics += [(j, True) for j in doc["joints"] if j.get("baseline") == "resolved"]
+    topics: list[tuple[Mapping[str, Any], bool]] = []
+    open_groups: dict[str, list[Mapping[str, Any]]] = {}
+    resolved_groups: dict[str, list[Mapping[str, Any]]] = {}
+    for j in doc["joints"]:
+        if j["status"] in ISSUE_STATUSES:
+            if grouped and j["status"] == "needs-design":
+                open_groups.setdefault(j.get("storey") or "", []).append(j)
+            else:
+                topics.append((j, False))
+        elif j.get("baseline") == "resolved":
+            if grouped and j.get("baseline_was") == "needs-design":
+                resolved_groups.setdefault(j.get("storey") or "", []).append(j)
+            else:
+                topics.append((j, True))
+    closed_groups = {st: js for st, js in resolved_groups.items() if st not in open_groups}
     if version == "3.0":
-        entries.append(("extensions.xml", _extensions([x for j, _ in topics for x in _labels(j)])))
-    for j, closed in sorted(topics, key=lambda t: t[0]["id"]):
-        folder = topic_guid(j["id"])
-        entries.append((folder + "/", None))
+        labels = [x for j, _ in topics for x in _labels(j)]
+        labels += [x for st in list(open_groups) + list(closed_groups) for x in _group_labels(st)]
+        entries.append(("extensions.xml", _extensions(labels)))
+    folders: list[tuple[str, list[tuple[str, bytes]]]] = []
+    for j, closed in topics:
         png = snapshots.get(j["id"])
-        entries.append((f"{folder}/markup.bcf", _markup(j, doc, version, date, project_guid, closed, png is not None)))
-        entries.append((f"{folder}/viewpoint.bcfv", _visinfo(j, version)))
+        files = [("markup.bcf", _markup(j, doc, version, date, project_guid, closed, png is not None)),
+                 ("viewpoint.bcfv", _visinfo(j, version))]
         if png is not None:
-            entries.append((f"{folder}/snapshot.png", png))
+            files.append(("snapshot.png", png))
+        folders.append((topic_guid(j["id"]), files))
+    for groups, closed in ((open_groups, False), (closed_groups, True)):
+        for storey, joints in groups.items():
+            markup, vis = _group_topic(storey, joints, doc, version, date, project_guid, closed)
+            folders.append((storey_topic_guid(storey), [("markup.bcf", markup), ("viewpoint.bcfv", vis)]))
+    for folder, files in sorted(folders, key=lambda f: f[0]):
+        entries.append((folder + "/", None))
+        entries.extend((f"{folder}/{name}", data) for name, data in files)
     buf = io.BytesIO()
     with zipfile.ZipFile(buf, "w", compression=zipfile.ZIP_DEFLATED) as zf:
         for name, data in entries:

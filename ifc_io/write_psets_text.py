@@ -21,14 +21,14 @@ from __future__ import annotations
 
 import math
 import re
-from typing import Any, Iterable, Mapping
+from typing import Any, Iterable, Iterator, Mapping
 
 import ifcopenshell
 
 from engine.errors import OutputError
-from ifc_io.write_psets import _guid, _owner_history, _properties, iter_joint_beams, remove_joint_psets
+from ifc_io.write_psets import PSET_NAMES, _guid, _owner_history, _properties, iter_joint_beams, remove_joint_psets
 
-__all__ = ["step_string", "step_real", "joint_pset_lines", "write_model_with_psets"]
+__all__ = ["step_string", "step_real", "joint_pset_lines", "iter_joint_pset_lines", "write_model_with_psets"]
 
 _DESCRIPTION = "joint-audit result for this beam end (an aid to a competent engineer; check it)"
 
@@ -73,6 +73,62 @@ def _typed(model_schema: str, ifc_type: str, value: Any) -> str:
     return f"{name}({step_string(str(value))})"
 
 
+class _Memo(dict):
+    """Text already encoded (names and the values that repeat from joint to joint: statuses, kinds,
+    sources, the code, the tool and the date); a bounded cache, so unique texts do not pile up."""
+
+    def __init__(self, fn, limit: int = 4096) -> None:
+        super().__init__()
+        self.fn, self.limit = fn, limit
+
+    def __missing__(self, key):
+        value = self.fn(*key)
+        if len(self) < self.limit:
+            self[key] = value
+        return value
+
+
+def iter_joint_pset_lines(
+    model: ifcopenshell.file,
+    doc: Mapping[str, Any],
+    first_id: int,
+    *,
+    n_per_force_unit: float = 1.0,
+    statuses: Iterable[str] = ("pass", "fail", "needs-design", "incomplete"),
+    owner_id: int | None = None,
+    counter: list[int] | None = None,
+) -> Iterator[str]:
+    """STEP lines of one property set per joint of ``doc`` whose status is in ``statuses`` (as
+    :func:`ifc_io.write_psets.write_joint_psets` writes them), ids from ``first_id``, one after the
+    other; ``counter[0]`` counts the sets."""
+    owner = f"#{owner_id}" if owner_id else "$"
+    schema = model.schema
+    typed = _Memo(lambda t, v: _typed(schema, t, v))
+    names = _Memo(lambda v: step_string(v))
+    n = first_id
+    for joint, beam, pset_name in iter_joint_beams(model, doc, statuses):
+        first = n
+        for name, ifc_type, value in _properties(joint, doc, n_per_force_unit):
+            enc = typed[(ifc_type, value)] if ifc_type not in ("IfcText", "IfcForceMeasure", "IfcRatioMeasure") \
+                else _typed(schema, ifc_type, value)
+            yield f"#{n}=IFCPROPERTYSINGLEVALUE({names[(name,)]},$,{enc},$);"
+            n += 1
+        pset_id = n
+        gid = beam.GlobalId
+        yield (
+            f"#{pset_id}=IFCPROPERTYSET({step_string(_guid(gid, pset_name))},{owner},"
+            f"{names[(pset_name,)]},{names[(_DESCRIPTION,)]},({','.join(f'#{i}' for i in range(first, pset_id))}));"
+        )
+        n += 1
+        yield (
+            f"#{n}=IFCRELDEFINESBYPROPERTIES({step_string(_guid(gid, pset_name, 'rel'))},{owner},$,$,"
+            f"(#{beam.id()}),#{pset_id});"
+        )
+        n += 1
+        if counter is not None:
+            counter[0] += 1
+
+
 def joint_pset_lines(
     model: ifcopenshell.file,
     doc: Mapping[str, Any],
@@ -85,30 +141,13 @@ def joint_pset_lines(
     """STEP lines of one property set per joint of ``doc`` whose status is in ``statuses`` (as
     :func:`ifc_io.write_psets.write_joint_psets` writes them), ids from ``first_id``; returns the
     lines and the number of sets."""
-    owner = f"#{owner_id}" if owner_id else "$"
-    schema = model.schema
-    lines: list[str] = []
-    n = first_id
-    count = 0
-    for joint, beam, pset_name in iter_joint_beams(model, doc, statuses):
-        prop_ids = []
-        for name, ifc_type, value in _properties(joint, doc, n_per_force_unit):
-            lines.append(f"#{n}=IFCPROPERTYSINGLEVALUE({step_string(name)},$,{_typed(schema, ifc_type, value)},$);")
-            prop_ids.append(n)
-            n += 1
-        pset_id = n
-        lines.append(
-            f"#{pset_id}=IFCPROPERTYSET({step_string(_guid(beam.GlobalId, pset_name))},{owner},"
-            f"{step_string(pset_name)},{step_string(_DESCRIPTION)},({','.join(f'#{i}' for i in prop_ids)}));"
-        )
-        n += 1
-        lines.append(
-            f"#{n}=IFCRELDEFINESBYPROPERTIES({step_string(_guid(beam.GlobalId, pset_name, 'rel'))},{owner},$,$,"
-            f"(#{beam.id()}),#{pset_id});"
-        )
-        n += 1
-        count += 1
-    return lines, count
+    counter = [0]
+    lines = list(iter_joint_pset_lines(model, doc, first_id, n_per_force_unit=n_per_force_unit,
+                                       statuses=statuses, owner_id=owner_id, counter=counter))
+    return lines, counter[0]
+
+
+_TAIL = 1 << 16  # the end of the DATA section is looked for in the file's last 64 KiB
 
 
 def write_model_with_psets(
@@ -120,26 +159,42 @@ def write_model_with_psets(
 ) -> int:
     """Write ``model`` to ``path`` with the results' property sets (see the module docstring);
     returns the number of sets written. ``model`` loses its earlier ``JointAudit_*`` sets (in memory
-    only; the input file is never touched)."""
-    for joint in doc["joints"]:
-        try:
-            remove_joint_psets(model, model.by_guid(joint["beam"]))
-        except RuntimeError:
-            continue
+    only; the input file is never touched).
+
+    The new lines go in place of the file's closing ``ENDSEC;`` and are streamed to disk in
+    batches: neither the written model nor the property sets are ever held whole in memory."""
+    if any(p.Name in PSET_NAMES for p in model.by_type("IfcPropertySet")):
+        for joint in doc["joints"]:
+            try:
+                remove_joint_psets(model, model.by_guid(joint["beam"]))
+            except RuntimeError:
+                continue
     owner = _owner_history(model)
     first = int(model.get_max_id()) + 1
-    lines, count = joint_pset_lines(model, doc, first, n_per_force_unit=n_per_force_unit,
-                                    owner_id=owner.id() if owner is not None else None)
     model.write(path)
-    with open(path, "r", encoding="ascii", newline="") as fh:
-        text = fh.read()
-    end = text.rfind("ENDSEC;")
-    if end < 0 or text.rfind("DATA;") > end:
-        raise OutputError(f"the IFC written to {path} has no DATA section to add the results to")
-    nl = "\r\n" if "\r\n" in text[:2000] else "\n"
-    with open(path, "w", encoding="ascii", newline="") as fh:
-        fh.write(text[:end])
-        if lines:
-            fh.write(nl.join(lines) + nl)
-        fh.write(text[end:])
-    return count
+    with open(path, "r+b") as fh:
+        head = fh.read(2000)
+        nl = b"\r\n" if b"\r\n" in head else b"\n"
+        size = fh.seek(0, 2)
+        start = max(0, size - _TAIL)
+        fh.seek(start)
+        tail = fh.read()
+        end = tail.rfind(b"ENDSEC;")
+        if end < 0 or b"DATA;" in tail[end:]:
+            raise OutputError(f"the IFC written to {path} has no DATA section to add the results to")
+        closing = tail[end:]
+        fh.seek(start + end)
+        fh.truncate()
+        counter = [0]
+        batch: list[str] = []
+        sep = nl.decode("ascii")
+        for line in iter_joint_pset_lines(model, doc, first, n_per_force_unit=n_per_force_unit,
+                                          owner_id=owner.id() if owner is not None else None, counter=counter):
+            batch.append(line)
+            if len(batch) >= 20000:
+                fh.write((sep.join(batch) + sep).encode("ascii"))
+                batch = []
+        if batch:
+            fh.write((sep.join(batch) + sep).encode("ascii"))
+        fh.write(closing)
+    return counter[0]

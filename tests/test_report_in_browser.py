@@ -50,7 +50,8 @@ def report(tmp_path_factory) -> Path:
 
 
 def _visible(drv) -> int:
-    return drv.execute_script("return Array.from(document.querySelectorAll('article.issue')).filter(e => !e.hidden).length")
+    """Issues shown: failing joints are articles, joints that need design are table rows."""
+    return drv.execute_script("return Array.from(document.querySelectorAll('.issue')).filter(e => !e.hidden).length")
 
 
 def test_filters_and_sort_work_in_the_page(browser, report, tmp_path):
@@ -69,6 +70,9 @@ def test_filters_and_sort_work_in_the_page(browser, report, tmp_path):
     Select(browser.find_element("id", "f-status")).select_by_value("")
     Select(browser.find_element("id", "f-storey")).select_by_value("")
     assert _visible(browser) == 99
+    Select(browser.find_element("id", "f-status")).select_by_value("needs-design")
+    assert _visible(browser) == 96
+    Select(browser.find_element("id", "f-status")).select_by_value("")
     browser.find_element("id", "sort-util").click()
     utils = browser.execute_script(
         "return Array.from(document.querySelectorAll('article.issue')).map(e => parseFloat(e.dataset.util) || -1)")
