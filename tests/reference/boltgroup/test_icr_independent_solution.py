@@ -15,12 +15,13 @@ group). C = P_u / R(Delta_max) (normalisation="delta-max") is 1 / 0.9815 = 1.9 %
 throughout. The AISC tables define C as P_u / R_ult (not re-read on a printed page for this
 file).
 
-Where the reference values come from. No published value of C is used here. The published
-tables and worked examples (AISC Manual Part 7 Tables 7-6 to 7-14 and the AISC Design Examples;
-the ICR table of Kulak, Fisher and Struik's Guide; textbook examples by Segui, McCormac, Salmon
-and Johnson; the CISC Handbook) were searched for with the search tool, but no page showing a
-printed C was found: only contents pages and introductions could be read. So every reference
-value below is an INDEPENDENT CALCULATION made in this file, not a published value:
+Where the reference values come from. No published value of C is used here: comparisons with
+published tables of C belong in ``test_icr_published_tables.py`` (same folder). Two searches for
+printed values (AISC Manual Part 7 Tables 7-6 to 7-14 and the AISC Design Examples; Kulak, Fisher
+and Struik's Guide; Segui, McCormac, Salmon and Johnson; the CISC Handbook; course notes and solved
+problems) found no page on which a printed C could be read, so that file holds, for now, only a
+value recalled from memory and marked so. Every reference value below is an INDEPENDENT
+CALCULATION made in this file, not a published value:
 ``_independent_icr`` finds the instantaneous centre by a plain two-dimensional search (sign-change
 bracketing on a log-polar grid, then repeated halving of a square window), from equilibrium of
 the bolt forces with the load written out directly. It shares no code with the engine (which
