@@ -44,12 +44,12 @@ CHECKS: tuple[tuple[str, str], ...] = (
     ("bolt tear-out in plate", "AS 4100-1998 cl. 9.3.2.4 (AS 4100:2020 cl. 9.2.2.4): Vb = ae tp fup"),
     ("bolt bearing on beam web", "AS 4100-1998 cl. 9.3.2.4 (AS 4100:2020 cl. 9.2.2.4): Vb = 3.2 df tp fup"),
     ("bolt tear-out in beam web", "AS 4100-1998 cl. 9.3.2.4 (AS 4100:2020 cl. 9.2.2.4): Vb = ae tp fup"),
-    ("plate shear yield", "AS 4100 cl. 5.11.4: Vw = 0.6 fy Aw (plate as a web)"),
+    ("plate shear yield", "AS 4100 cl. 5.11.3 with Vu = 0.6 fy Aw (cl. 5.11.4): plate as a web, non-uniform shear"),
     ("plate shear rupture", "AS 4100 cl. 9.1.9 (net shear area, 0.6 fu Anv, φ = 0.75)"),
     ("plate block shear", "AS 4100 cl. 9.1.9: Rbs = 0.6 fu Anv + kbs fu Ant ≤ 0.6 fy Agv + kbs fu Ant"),
     ("plate bending", "AS 4100 cl. 5.2 (Ms = fy Ze, Ze = Z elastic), gross at weld / net at bolt line"),
     ("plate lateral-torsional buckling", "AS 4100 cl. 5.6.1.1 (rectangular plate, Iw = 0, αm = 1.0)"),
-    ("beam web shear", "AS 4100 cl. 5.11.4, 5.11.5.1 (gross); cl. 9.1.9 net shear (φ = 0.75)"),
+    ("beam web shear", "AS 4100 cl. 5.11.4, 5.11.5.1 (gross; coped: cl. 5.11.3); cl. 9.1.9 net shear (φ = 0.75)"),
     ("beam web block shear", "AS 4100 cl. 9.1.9 (coped web)"),
     ("coped section bending", "AS 4100 cl. 5.2 (remaining section, Table 5.2 outstand slenderness)"),
     ("weld", "AS 4100-1998 cl. 9.7.3.10 (AS 4100:2020 cl. 9.6.3.10): φvw = φ 0.6 fuw tt kr"),
@@ -432,12 +432,12 @@ class AS4100(RuleSet):
     def _plate_shear(self, plate: FinPlate, V: float, dh: float, pm: _Material) -> list[Check]:
         f = D.factors()
         Ag = plate.depth * plate.thickness
-        cap_y = f["phi"]["member"] * C.Vw_shear(pm.fy, Ag)
+        cap_y = f["phi"]["member"] * C.Vv_nonuniform(C.Vw_shear(pm.fy, Ag), C.RECT_SHEAR_STRESS_RATIO)
         Anv = (plate.depth - plate.rows * dh) * plate.thickness
         cap_r = f["phi"]["block_shear"] * 0.6 * pm.fu * Anv
         return [
             C.make_check("plate shear yield", _CLAUSE["plate shear yield"], abs(V), cap_y, "N",
-                         f"Ag = {Ag:.0f} mm², fy = {pm.fy:g} MPa ({pm.note})"),
+                         f"Ag = {Ag:.0f} mm², fy = {pm.fy:g} MPa ({pm.note}), f*vm/f*va = 1.5 (rectangle)"),
             C.make_check("plate shear rupture", _CLAUSE["plate shear rupture"], abs(V), cap_r, "N",
                          f"Anv = {Anv:.0f} mm², fu = {pm.fu:g} MPa"),
         ]
@@ -506,10 +506,28 @@ class AS4100(RuleSet):
             av = C.alpha_v(d1, bm.tw, bm.fy)
             Aw = bm.d * bm.tw
             gross_note = f"Aw = d tw = {Aw:.0f} mm², αv = {av:.3f}"
+            cap_y = f["phi"]["member"] * av * C.Vw_shear(bm.fy, Aw)
+        elif bm.cope_top > 0 and bm.cope_bottom > 0:
+            # double coped: the web alone, a rectangle h × tw (cl. 5.11.3, f*vm/f*va = 1.5)
+            Aw = h * bm.tw
+            cap_y = f["phi"]["member"] * C.Vv_nonuniform(C.Vw_shear(bm.fy, Aw), C.RECT_SHEAR_STRESS_RATIO)
+            gross_note = f"double coped: Aw = {h:g} × {bm.tw:g} = {Aw:.0f} mm², f*vm/f*va = 1.5 (cl. 5.11.3)"
+        elif bm.bf is not None and bm.tf is not None:
+            # coped at one flange: the tee's stem below the flange carries the shear (cl. 5.11.3,
+            # f*vm/f*va from the tee's elastic shear flow), as ASI Handbook 1 (2007) Ch 6.5
+            dw = h - bm.tf
+            if dw <= 0:
+                return [C.incomplete_check("beam web shear", _CLAUSE["beam web shear"],
+                                           "the cope leaves no web below the flange", "N")]
+            Aw = dw * bm.tw
+            ratio = C.tee_shear_stress_ratio(bm.bf, bm.tf, bm.tw, dw)
+            cap_y = f["phi"]["member"] * C.Vv_nonuniform(C.Vw_shear(bm.fy, Aw), ratio)
+            gross_note = f"coped at one flange: stem Aw = {dw:g} × {bm.tw:g} = {Aw:.0f} mm², f*vm/f*va = {ratio:.2f} (cl. 5.11.3)"
         else:
-            av, Aw = 1.0, h * bm.tw
-            gross_note = f"coped: Aw = {h:g} × {bm.tw:g} = {Aw:.0f} mm²"
-        cap_y = f["phi"]["member"] * av * C.Vw_shear(bm.fy, Aw)
+            # flange unknown: the remaining depth as a rectangle (cl. 5.11.3, f*vm/f*va = 1.5)
+            Aw = h * bm.tw
+            cap_y = f["phi"]["member"] * C.Vv_nonuniform(C.Vw_shear(bm.fy, Aw), C.RECT_SHEAR_STRESS_RATIO)
+            gross_note = f"coped, flange unknown: Aw = {h:g} × {bm.tw:g} = {Aw:.0f} mm², f*vm/f*va = 1.5 (cl. 5.11.3)"
         Anv = (h - plate.rows * dh) * bm.tw
         cap_r = f["phi"]["block_shear"] * 0.6 * bm.fu * Anv
         if cap_y <= cap_r:

@@ -102,6 +102,35 @@ def Vw_shear(fy: float, Aw: float) -> float:
     return 0.6 * fy * Aw
 
 
+def Vv_nonuniform(Vu: float, fvm_over_fva: float) -> float:
+    """Nominal shear capacity (N) of a web with a non-uniform shear stress distribution, AS 4100
+    cl. 5.11.3: Vv = 2 Vu / (0.9 + f*vm / f*va) ≤ Vu, where ``Vu`` is the capacity under uniform shear
+    (cl. 5.11.4) and f*vm / f*va the ratio of the largest to the average shear stress (1.5 for a
+    rectangle in elastic bending shear; ASI Handbook 1 (2007) Ch 5.4 applies it so to plates and cleats,
+    φVv = 0.45 fy d t)."""
+    return min(Vu, 2.0 * Vu / (0.9 + fvm_over_fva))
+
+
+RECT_SHEAR_STRESS_RATIO = 1.5
+"""f*vm / f*va of a rectangle under elastic bending shear (τmax = 1.5 V / A)."""
+
+
+def tee_shear_stress_ratio(bf: float, tf: float, tw: float, h_stem: float) -> float:
+    """f*vm / f*va in the stem of a tee (the remaining section of a beam coped at one flange) under
+    elastic bending shear: f*vm = V Q / (I tw) at the centroid, f*va = V / (h_stem tw), so the ratio
+    is Q h_stem / I (dimensionless; AS 4100 cl. 5.11.3 as used in ASI Handbook 1 (2007) Ch 6.5).
+    Dimensions in mm; ``h_stem`` measured from the flange's inner face."""
+    A1, A2 = bf * tf, tw * h_stem
+    y1, y2 = tf / 2.0, tf + h_stem / 2.0
+    yc = (A1 * y1 + A2 * y2) / (A1 + A2)
+    I = bf * tf**3 / 12.0 + A1 * (yc - y1) ** 2 + tw * h_stem**3 / 12.0 + A2 * (y2 - yc) ** 2
+    if yc >= tf:  # the centroid lies in the stem: the first moment of the stem below it
+        Q = tw * (tf + h_stem - yc) ** 2 / 2.0
+    else:  # in the flange: everything beyond the centroid, i.e. the stem and part of the flange
+        Q = A2 * (y2 - yc) + bf * (tf - yc) ** 2 / 2.0
+    return Q * h_stem / I
+
+
 def alpha_v(d1: float, tw: float, fy: float) -> float:
     """Shear buckling factor of an unstiffened web, AS 4100 cl. 5.11.5.1:
     αv = [82 / ((d1/tw)·√(fy/250))]² ≤ 1.0 (d1 clear web depth, tw in mm, fy MPa)."""

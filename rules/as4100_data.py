@@ -135,7 +135,7 @@ def steel_strength(label: str, thickness: float, product: str) -> tuple[float, f
         return None
     row = table[grade]
     for band in row["bands"]:
-        if thickness <= band["t_max"]:
+        if thickness < band["t_below"] if "t_below" in band else thickness <= band["t_max"]:
             return float(band["fy"]), float(row["fu"]), f"{row['standard']} Grade {grade}, t = {thickness:g} mm"
     return None
 

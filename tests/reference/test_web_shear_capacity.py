@@ -20,7 +20,10 @@ def _beam(section: Section, steel: Steel) -> Member:
 
 def test_as4100_web_shear_is_phi_0_6_fy_d_tw():
     # AS 4100 cl. 5.11.4 (stocky web) with φ = 0.9 (Table 3.4): 310UB40.4 Grade 300, d = 304,
-    # tw = 6.1 mm; fy = 320 MPa for t ≤ 11 mm (AS/NZS 3679.1 Table 2)  # from memory
+    # tw = 6.1 mm; fy = 320 MPa for t < 11 mm (AS 4100 Table 2.1, AS/NZS 3679.1 Grade 300: found by
+    # search as transcribed from AS 4100:2020 Table 2.1 and ASI DCT Vol. 1 (1999) Table T2.1, stored
+    # file id 71441545365). φVvo = 0.54 fy Aw, Aw = d tw for a rolled section: ASI Handbook 1
+    # (Hogan & Munter 2007) Ch 6.2, as quoted in stored file id 70998954710 (found).
     # φVv = 0.9 × 0.6 × 320 × 304 × 6.1 = 320 440 N
     b = _beam(Section("310UB40.4", "I", 304, 165, 6.1, 10.2, 11.4, 5210), Steel("300", 320, 440))
     assert rules.load("as4100").web_shear_capacity(b) == pytest.approx(0.9 * 0.6 * 320 * 304 * 6.1, rel=1e-9)

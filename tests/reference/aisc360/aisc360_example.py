@@ -9,7 +9,9 @@ threads included (N), standard holes, a = 3 in., pitch 3 in., Lev = 1-1/4 in., L
 The problem statement and the 52.2 kips answer are recalled from the publication (# from memory);
 the Design Examples pages themselves could not be read in the stored material.
 Section properties W16×50 (d = 16.3, bf = 7.07, tw = 0.380, tf = 0.630, kdes = 1.03 in.) and
-W14×90 (d = 14.0, bf = 14.5, tw = 0.440, tf = 0.710 in.): AISC Manual Table 1-1 # from memory.
+W14×90 (d = 14.0, bf = 14.5, tw = 0.440, tf = 0.710 in.): AISC Manual Table 1-1 # from memory, except
+tf = 0.710 in., found by search in AISC Design Examples V14.1, Example II.A-1 ("From AISC Manual
+Table 1-1 ... W14×90 tf = 0.710 in.", scribd.com/document/455849748).
 """
 
 from __future__ import annotations

@@ -207,6 +207,7 @@ def test_weld_stronger_than_plate_five_eighths_rule():
 
 def test_minimum_fillet_table_J2_4():
     # Table J2.4: t ≤ 1/4 -> 1/8; ≤ 1/2 -> 3/16; ≤ 3/4 -> 1/4; > 3/4 -> 5/16 in. # from memory
+    # (the first row found by search: AISC Design Examples V14.0, Example J.1, scribd 361764042)
     assert data.min_fillet_leg(0.25 * IN) == pytest.approx(0.125 * IN)
     assert data.min_fillet_leg(0.5 * IN) == pytest.approx(0.1875 * IN)
     assert data.min_fillet_leg(0.6 * IN) == pytest.approx(0.25 * IN)

@@ -4,6 +4,19 @@ Every value names its source; "found by search" means the value was seen in publ
 the search tool (named beside it); "# from memory" means recalled from the publication and not
 confirmed there. Internal units are N and mm; published values are kips and inches
 (1 kip = 4448.222 N, 1 in. = 25.4 mm).
+
+Sources found by search (tags used below):
+  [J3.2-10]  ANSI/AISC 360-10 Table J3.2 "Nominal Strength of Fasteners and Threaded Parts", p. 16.1-120
+             (scribd.com/document/511246167): Group A Fnv 54 (N) / 68 (X) ksi, Group B 68 / 84 ksi,
+             Fnt 90 / 113 ksi, footnote [b] 38 in. and 83.3 %; J3.10 bearing φ = 0.75. The ksi values
+             are the same in AISC 360-16 # from memory.
+  [J3.4-16]  ANSI/AISC 360-16 Specification, Table J3.4 "Minimum Edge Distance from Center of Standard
+             Hole to Edge of Connected Part" (scribd.com/document/782484295).
+  [DE-J1]    AISC Design Examples V14.0, Example J.1 "Fillet weld in longitudinal shear", p. J-2
+             (scribd.com/document/361764042): 3/16-in. E70 fillet, Rn = 0.60(70 ksi)(3/16 in.)(0.707)
+             = 5.57 kips/in.; Table J2.4 minimum fillet for 1/4-in. material = 1/8 in.
+  [DE-IIA1]  AISC Design Examples V14.1, Example II.A-1 (scribd.com/document/455849748): Manual
+             Table 2-4 steels, Manual Table 1-1 W14×90 tf = 0.710 in., Ru = 1.2(37.5) + 1.6(113) = 226 kips.
 """
 
 from __future__ import annotations
@@ -25,8 +38,8 @@ RS = AISC360()
 @pytest.mark.parametrize(
     "size, grade, threads_in, kips, tol, source",
     [
-        # Table 7-1, 3/4 in. Group A-N: 17.9 kips # from memory; J3.6 by hand:
-        # 0.75 × 54 ksi × 0.4418 in² = 17.892 kips
+        # Table 7-1, 3/4 in. Group A-N: 17.9 kips # from memory; J3.6 by hand with Fnv = 54 ksi
+        # [J3.2-10] and Ab = 0.4418 in² (found): 0.75 × 54 ksi × 0.4418 in² = 17.892 kips
         ("3/4", "A325", True, 17.892, 0.002, "Table 7-1; J3.6 by hand"),
         ("3/4", "A325", False, 22.5, 0.05, "Table 7-1 3/4 Group A-X # from memory"),
         # 7/8 in. Group A-N: 24.3 kips # from memory; by hand 0.75 × 54 × 0.6013 in² = 24.35 kips
@@ -52,6 +65,26 @@ def test_bolt_design_shear_matches_manual_table_7_1(size, grade, threads_in, kip
     assert RS.bolt_shear_capacity(size, grade, threads_in) / KIP == pytest.approx(kips, abs=tol), source
 
 
+@pytest.mark.parametrize("grade, threads_in, ksi", [
+    ("A325", True, 54.0), ("A325", False, 68.0), ("A490", True, 68.0), ("A490", False, 84.0),
+])
+def test_nominal_bolt_shear_stress_matches_table_J3_2(grade, threads_in, ksi):
+    # [J3.2-10] (found): Group A 54 / 68 ksi, Group B 68 / 84 ksi (threads not excluded / excluded)
+    assert data.Fnv(grade, threads_in) / KSI == pytest.approx(ksi, rel=1e-9)
+
+
+def test_long_joint_reduction_matches_table_J3_2_footnote_b():
+    # [J3.2-10] footnote [b] (found): fastener pattern length over 38 in. -> 83.3 % of Fnv
+    f = data.bolts()["factors"]
+    assert (f["long_joint_length_in"], f["long_joint_factor"]) == (38.0, 0.833)
+
+
+def test_bolt_shear_and_bearing_resistance_factors_are_0_75():
+    # [J3.2-10] section J3.10 (found): bearing φ = 0.75; J3.6 bolt shear φ = 0.75 # from memory
+    assert data.factors()["phi"]["bearing"] == 0.75
+    assert data.bolts()["factors"]["phi_shear"] == 0.75
+
+
 def test_double_shear_is_twice_single_shear():
     # AISC 360-16 J3.6: Rn per shear plane; Manual Table 7-1 "D" column = 2 × "S" # from memory
     assert RS.bolt_shear_capacity("7/8", "A325", True, 2) == pytest.approx(2 * RS.bolt_shear_capacity("7/8", "A325"))
@@ -67,10 +100,25 @@ def test_nominal_bolt_area_three_quarter_inch():
 
 @pytest.mark.parametrize("sixteenths", [1, 3, 4, 5])
 def test_fillet_weld_per_sixteenth_matches_manual(sixteenths):
-    # 1.392 D kips/in. (LRFD, E70XX, no directional increase), AISC Manual Part 8 # from memory.
+    # 1.392 D kips/in. (LRFD, E70XX, no directional increase), AISC Manual Part 8 # from memory;
+    # it follows from [DE-J1] (found): 0.75 × 5.57 kips/in. / 3 sixteenths = 1.3925.
     # Hand: 0.75 × 0.60 × 70 × 0.7071 / 16 = 1.3922 kips/in. per sixteenth.
     per_mm = RS.fillet_weld_capacity(sixteenths / 16 * IN, "E70XX")
     assert per_mm * IN / KIP == pytest.approx(1.392 * sixteenths, rel=2e-4)
+
+
+def test_three_sixteenths_fillet_matches_design_example_J1():
+    # [DE-J1] (found): Rn = 0.60 FEXX Awe = 0.60 (70 ksi)(3/16 in.)(0.707) = 5.57 kips/in.;
+    # the rule set returns φ Rn with φ = 0.75 (J2.4)
+    phi_rn = RS.fillet_weld_capacity(3 / 16 * IN, "E70XX") * IN / KIP
+    assert phi_rn / 0.75 == pytest.approx(5.57, abs=0.005)
+
+
+def test_minimum_fillet_for_quarter_inch_material_matches_design_example_J1():
+    # [DE-J1] (found): "From AISC Specification Table J2.4, the minimum size of fillet weld, based on
+    # a material thickness of 1/4 in. is 1/8 in." (other rows of Table J2.4 # from memory, see
+    # test_aisc360_clauses.py)
+    assert data.min_fillet_leg(0.25 * IN) / IN == pytest.approx(0.125)
 
 
 # --- bearing and tear-out per inch of thickness, Manual Tables 7-4 / 7-5 ----------------------
@@ -96,22 +144,38 @@ def test_tearout_per_inch_edge_bolt_matches_table_7_5():
 # --- dimensional tables: Table J3.3 holes, Table J3.4 minimum edge distance --------------------
 
 @pytest.mark.parametrize(
-    "size, hole_in, edge_in",
+    "size, edge_in",
     [
-        # AISC 360-16 Table J3.3 standard holes and Table J3.4 edge distances # from memory
-        ("1/2", 9 / 16, 3 / 4),
-        ("5/8", 11 / 16, 7 / 8),
-        ("3/4", 13 / 16, 1.0),
-        ("7/8", 15 / 16, 1.125),
-        ("1", 1.125, 1.25),
-        ("1-1/8", 1.25, 1.5),
-        ("1-1/4", 1.375, 1.625),
+        # [J3.4-16] (found): 1/2 -> 3/4, 5/8 -> 7/8, 3/4 -> 1, 7/8 -> 1-1/8, 1 -> 1-1/4,
+        # 1-1/8 -> 1-1/2, 1-1/4 -> 1-5/8 in.
+        ("1/2", 3 / 4),
+        ("5/8", 7 / 8),
+        ("3/4", 1.0),
+        ("7/8", 1.125),
+        ("1", 1.25),
+        ("1-1/8", 1.5),
+        ("1-1/4", 1.625),
     ],
 )
-def test_standard_hole_and_minimum_edge_distance_tables(size, hole_in, edge_in):
-    b = data.bolt_size(size)
-    assert b.hole_std == pytest.approx(hole_in * IN)
-    assert b.edge_min == pytest.approx(edge_in * IN)
+def test_minimum_edge_distance_matches_table_J3_4(size, edge_in):
+    assert data.bolt_size(size).edge_min == pytest.approx(edge_in * IN)
+
+
+@pytest.mark.parametrize(
+    "size, hole_in",
+    [
+        # AISC 360-16 Table J3.3 standard holes # from memory
+        ("1/2", 9 / 16),
+        ("5/8", 11 / 16),
+        ("3/4", 13 / 16),
+        ("7/8", 15 / 16),
+        ("1", 1.125),
+        ("1-1/8", 1.25),
+        ("1-1/4", 1.375),
+    ],
+)
+def test_standard_hole_table_J3_3(size, hole_in):
+    assert data.bolt_size(size).hole_std == pytest.approx(hole_in * IN)
 
 
 def test_minimum_edge_distance_check_uses_table_J3_4():
@@ -123,6 +187,13 @@ def test_minimum_edge_distance_check_uses_table_J3_4():
 
 
 # --- materials and load combination ------------------------------------------------------------
+
+def test_w14x90_flange_thickness_matches_design_example_II_A_1():
+    # [DE-IIA1] (found): "From AISC Manual Table 1-1 ... Column W14×90 tf = 0.710 in."
+    from aisc360_example import W14X90
+
+    assert W14X90.flange_thickness == pytest.approx(0.710 * IN)
+
 
 def test_steel_grades_match_manual_table_2_4():
     # found by search: AISC Design Examples V14.1, Example II.A-1 (scribd.com/document/455849748):

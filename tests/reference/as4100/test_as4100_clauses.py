@@ -342,7 +342,8 @@ def test_cope_outside_the_validity_range_is_incomplete(rs, make_plate, make_join
 def test_unknown_plate_grade_uses_the_given_strengths(rs, make_plate, make_joint, beam, column, demand150, by_name):
     plate = make_plate(steel=Steel("S275", 275.0, 430.0))
     chk = by_name(rs.check_fin_plate(make_joint(), demand150, plate, beam, column))
-    assert chk["plate shear yield"].capacity == pytest.approx(0.9 * 0.6 * 275 * 230 * 10)
+    # cl. 5.11.3 with Vu = 0.6 fy Ag (cl. 5.11.4), f*vm/f*va = 1.5: 0.9 × 2 × 0.6 × 275 × 2300 / 2.4
+    assert chk["plate shear yield"].capacity == pytest.approx(0.9 * 2 * 0.6 * 275 * 230 * 10 / (0.9 + 1.5))
     assert "not in AS/NZS 3678" in chk["plate shear yield"].note
 
 

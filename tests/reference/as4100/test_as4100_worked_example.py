@@ -10,6 +10,13 @@ Australian standard connection: 310UB40.4 Grade 300 beam to the flange of a 250U
 column, 3 × M20 8.8/S bolts at 70 mm pitch in a 230 × 95 × 10 mm Grade 250 plate, a = 60 mm, 8 mm
 E48XX SP fillet welds both sides, V* = 150 kN. Every expected value below is the clause computed
 by hand; agreement is to 0.01 % (arithmetic only, there is no printed precision to match).
+
+Searched again for a published example (pages corpus: ASI "Steel Construction" Vol 41 No 2 (2007),
+ASI Design Guide 5 / web side plate, ASI Handbook 1, "web side plate worked example AS 4100"; code
+corpus: notes quoting ASI publications): the journal and the handbooks are stored only as their
+opening pages, and no web side plate example was found. The published AS 4100 values that could be
+read (ASI Handbook 1 worked examples and tables, AS 4100 Table 2.1, 9.2.1, 9.5.2 as transcribed) are
+tested in test_asi_tables.py and test_asi_handbook1_published.py.
 """
 
 from __future__ import annotations
@@ -30,7 +37,7 @@ df, dh = 20.0, 22.0             # M20, standard hole df + 2 (cl. 14.3.5.2)
 tp, dp, a = 10.0, 230.0, 60.0   # plate
 fy_p, fu_p = 260.0, 410.0       # AS/NZS 3678 Grade 250, 8 < t ≤ 12 mm (AS 4100 Table 2.1)
 tw, d, tf, r1, bf = 6.1, 304.0, 10.2, 11.4, 165.0   # 310UB40.4
-fy_w, fu_w = 320.0, 440.0       # AS/NZS 3679.1 Grade 300, t ≤ 11 mm
+fy_w, fu_w = 320.0, 440.0       # AS/NZS 3679.1 Grade 300, t < 11 mm (AS 4100 Table 2.1)
 tf_col, fy_col = 14.2, 300.0    # 250UC72.9 flange, Grade 300, 11 < t ≤ 17 mm
 phiVf = 0.8 * 0.62 * 830 * 225  # cl. 9.3.2.1: threads included, Ac = 225 mm² -> 92 628 N
 
@@ -71,8 +78,9 @@ def test_tear_out_plate_and_web(envelope):
 
 
 def test_plate_shear_yield_rupture_block(envelope):
-    # cl. 5.11.4: φ 0.6 fy Ag = 0.9 × 0.6 × 260 × 2300 = 322.9 kN
-    assert envelope["plate shear yield"].capacity == pytest.approx(0.9 * 0.6 * 260 * 2300, rel=REL)
+    # cl. 5.11.3 (non-uniform shear in a rectangle, f*vm/f*va = 1.5) with Vu = 0.6 fy Ag (cl. 5.11.4):
+    # 0.9 × 2 × 0.6 × 260 × 2300 / (0.9 + 1.5) = 0.45 fy Ag = 269.1 kN (ASI Handbook 1 (2007) Ch 5.4)
+    assert envelope["plate shear yield"].capacity == pytest.approx(0.45 * 260 * 2300, rel=REL)
     # net shear: Anv = (230 − 3 × 22) × 10 = 1640 mm²; 0.75 × 0.6 × 410 × 1640 = 302.6 kN
     assert envelope["plate shear rupture"].capacity == pytest.approx(0.75 * 0.6 * 410 * 1640, rel=REL)
     # cl. 9.1.9: shear plane top bolt to bottom edge: 230 − 45 = 185 mm: Agv = 1850,
