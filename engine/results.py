@@ -102,55 +102,64 @@ def results_document(
     close the topic the issue had (one per joint, or its storey's group of joints needing design)."""
     summary = {"joints": len(results), **{s: 0 for s in STATUSES}}
     joints = []
+    who: dict[str | None, tuple[str, str, str]] = {None: ("", "", "")}  # GlobalId → (label, section, storey)
+
+    def _who(gid: str | None) -> tuple[str, str, str]:
+        if gid not in who:
+            m = members.get(gid)
+            who[gid] = (m.label, m.section.name, m.storey) if m else ("", "", "")
+        return who[gid]
+
+    marks = baseline or {}
     for res in sorted(results, key=lambda r: r.joint.id):
         j = res.joint
         summary[res.status] += 1
-        beam = members.get(j.beam)
-        support = members.get(j.support) if j.support else None
+        beam_label, beam_section, beam_storey = _who(j.beam)
+        support_label, support_section, _ = _who(j.support)
         g = j.geometry
-        joints.append(
-            {
-                "id": j.id,
-                "beam": j.beam,
-                "beam_name": beam.label if beam else "",
-                "beam_section": beam.section.name if beam else "",
-                "end": j.end,
-                "support": j.support,
-                "support_name": support.label if support else "",
-                "support_section": support.section.name if support else "",
-                "storey": beam.storey if beam else "",
-                "location_mm": [_r(v) for v in g.location],
-                "kind": j.kind,
-                "stiffness": j.stiffness,
-                "stiffness_reasons": list(j.reasons),
-                "geometry": {
-                    "angle_deg": _r(g.angle_deg),
-                    "gap_mm": _r(g.gap),
-                    "tos_diff_mm": _r(g.tos_diff),
-                    "copes": [asdict(c) for c in g.copes],
-                    "support_continuous": g.support_continuous,
-                    "back_to_back": g.back_to_back,
-                },
-                "demand": None
-                if res.demand is None
-                else {
-                    "V_kN": _r(res.demand.V * 1e-3),
-                    "N_kN": _r(res.demand.N * 1e-3),
-                    "source": res.demand.source,
-                    "combination": res.demand.combination,
-                },
-                "connection": _connection_dict(res.connection),
-                "checks": [check_to_display(c) for c in res.checks],
-                "utilisation": _r(res.utilisation, 4),
-                "governing": res.governing,
-                "status": res.status,
-                "missing": list(res.missing),
-                "note": res.note,
-                "baseline": (baseline or {}).get(j.id) if baseline is not None else None,
-            }
-        )
-        if baseline_was and joints[-1]["baseline"] == "resolved":
-            joints[-1]["baseline_was"] = baseline_was.get(j.id)
+        d = res.demand
+        entry = {
+            "id": j.id,
+            "beam": j.beam,
+            "beam_name": beam_label,
+            "beam_section": beam_section,
+            "end": j.end,
+            "support": j.support,
+            "support_name": support_label,
+            "support_section": support_section,
+            "storey": beam_storey,
+            "location_mm": [_r(v) for v in g.location],
+            "kind": j.kind,
+            "stiffness": j.stiffness,
+            "stiffness_reasons": list(j.reasons),
+            "geometry": {
+                "angle_deg": _r(g.angle_deg),
+                "gap_mm": _r(g.gap),
+                "tos_diff_mm": _r(g.tos_diff),
+                "copes": [{"where": c.where, "depth": c.depth, "length": c.length} for c in g.copes],
+                "support_continuous": g.support_continuous,
+                "back_to_back": g.back_to_back,
+            },
+            "demand": None
+            if d is None
+            else {
+                "V_kN": _r(d.V * 1e-3),
+                "N_kN": _r(d.N * 1e-3),
+                "source": d.source,
+                "combination": d.combination,
+            },
+            "connection": _connection_dict(res.connection),
+            "checks": [check_to_display(c) for c in res.checks],
+            "utilisation": _r(res.utilisation, 4),
+            "governing": res.governing,
+            "status": res.status,
+            "missing": list(res.missing),
+            "note": res.note,
+            "baseline": marks.get(j.id) if baseline is not None else None,
+        }
+        if baseline_was and entry["baseline"] == "resolved":
+            entry["baseline_was"] = baseline_was.get(j.id)
+        joints.append(entry)
     return {
         "tool": {"name": "joint-audit", "version": __version__},
         "caution": CAUTION,

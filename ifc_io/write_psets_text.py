@@ -77,7 +77,7 @@ class _Memo(dict):
     """Text already encoded (names and the values that repeat from joint to joint: statuses, kinds,
     sources, the code, the tool and the date); a bounded cache, so unique texts do not pile up."""
 
-    def __init__(self, fn, limit: int = 4096) -> None:
+    def __init__(self, fn, limit: int = 4096) -> None:  # noqa: D107
         super().__init__()
         self.fn, self.limit = fn, limit
 
@@ -104,14 +104,22 @@ def iter_joint_pset_lines(
     owner = f"#{owner_id}" if owner_id else "$"
     schema = model.schema
     typed = _Memo(lambda t, v: _typed(schema, t, v))
+    prefix = _Memo(lambda name: f"=IFCPROPERTYSINGLEVALUE({step_string(name)},$,")
     names = _Memo(lambda v: step_string(v))
+    reason = _Memo(lambda r: step_string(r)[1:-1], limit=65536)  # encoded without the quotes
     n = first_id
     for joint, beam, pset_name in iter_joint_beams(model, doc, statuses):
         first = n
         for name, ifc_type, value in _properties(joint, doc, n_per_force_unit):
-            enc = typed[(ifc_type, value)] if ifc_type not in ("IfcText", "IfcForceMeasure", "IfcRatioMeasure") \
-                else _typed(schema, ifc_type, value)
-            yield f"#{n}=IFCPROPERTYSINGLEVALUE({names[(name,)]},$,{enc},$);"
+            if name == "StiffnessReasons":
+                # STEP encoding works character by character, so the joined text encodes as the
+                # join of its encoded parts; the reasons repeat from joint to joint
+                enc = "IFCTEXT('" + "; ".join(reason[(r,)] for r in joint["stiffness_reasons"]) + "')"
+            elif ifc_type in ("IfcText", "IfcForceMeasure", "IfcRatioMeasure"):
+                enc = _typed(schema, ifc_type, value)
+            else:
+                enc = typed[(ifc_type, value)]
+            yield f"#{n}{prefix[(name,)]}{enc},$);"
             n += 1
         pset_id = n
         gid = beam.GlobalId
