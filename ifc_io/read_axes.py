@@ -35,12 +35,14 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from ifc_io.read_geometry import (IDENTITY, Mat, PlacementResolver, add, apply, apply_dir, arg,
-                                  curve_end_points, dot, norm, point, scale, sub, unit, mul)
+                                  arg_unchecked, curve_end_points, dot, norm, point, scale, sub, unit,
+                                  mul)
 
 __all__ = ["SolidInfo", "MemberGeometry", "AxisResult", "shape_representations", "read_geometry",
            "member_axis", "solid_frame", "solid_corners", "tessellated_axis"]
 
 _BODY_IDS = ("body", "body-fallback", "", "facetation", "reference")
+_BODY_RANK = {ident: i for i, ident in enumerate(_BODY_IDS)}
 _SKIP_IDS = ("axis", "box", "footprint", "annotation", "profile", "surface", "clearance", "lighting",
              "cog", "finishsurface")
 
@@ -99,8 +101,7 @@ def shape_representations(product, index, resolver: PlacementResolver) -> list[t
     reps: list[tuple[object, Mat]] = []
     pds = arg(product, 6)  # IfcProduct.Representation
     if pds is not None:
-        for r in arg(pds, 2) or ():  # IfcProductRepresentation.Representations
-            reps.append((r, IDENTITY))
+        reps = [(r, IDENTITY) for r in arg_unchecked(pds, 2) or ()]  # .Representations
     if not reps and index is not None:
         t = index.element_type(product)
         for rm in getattr(t, "RepresentationMaps", None) or ():
@@ -139,9 +140,10 @@ def _profile_matrix(profile, resolver: PlacementResolver) -> tuple[Mat, object]:
 def _collect(item, m, resolver, solids, directrices, vertices, depth=0):
     if depth > 12:
         return
-    if item.is_a("IfcExtrudedAreaSolid"):
+    if item.is_a() == "IfcExtrudedAreaSolid" or item.is_a("IfcExtrudedAreaSolid"):
         # (SweptArea, Position, ExtrudedDirection, Depth) in every schema
-        area, pos, direction, length = arg(item, 0), arg(item, 1), arg(item, 2), arg(item, 3)
+        get = arg_unchecked
+        area, pos, direction, length = get(item, 0), get(item, 1), get(item, 2), get(item, 3)
         ms = mul(m, resolver.a2p(pos)) if pos is not None else m
         mp, _ = _profile_matrix(area, resolver)
         solids.append(SolidInfo(ms, unit(arg(direction, 0)), float(length), area, mp))
@@ -200,34 +202,39 @@ def _loop_vertices(shell, m, vertices) -> None:
 def read_geometry(product, index, resolver: PlacementResolver) -> MemberGeometry:
     """Read a product's placement and representations (no tessellation)."""
     geom = MemberGeometry(resolver.matrix(arg(product, 5)))  # IfcProduct.ObjectPlacement
-    reps = [(r, m, _ident(r)) for r, m in shape_representations(product, index, resolver)]
+    pds = arg_unchecked(product, 6)  # IfcProduct.Representation (``product`` read above: not None)
+    own = arg_unchecked(pds, 2) if pds is not None else None  # .Representations
+    if type(own) is tuple and own:  # :func:`shape_representations`, its usual case written out
+        reps = [(r, IDENTITY, _ident(r)) for r in own]
+    else:
+        reps = [(r, m, _ident(r)) for r, m in shape_representations(product, index, resolver)]
     for rep, m0, ident in reps:
         if ident != "axis":
             continue
-        for item, m in resolver.iter_items(rep, m0):
-            if item.is_a("IfcCurve") or item.is_a("IfcGeometricSet"):
+        for item, m in resolver.item_pairs(rep, m0):
+            cls = item.is_a()
+            if cls == "IfcPolyline" or item.is_a("IfcCurve") or item.is_a("IfcGeometricSet"):
                 ends = curve_end_points(item)
                 if ends is not None:
                     geom.axis = (apply(m, ends[0]), apply(m, ends[1]))
                     break
         if geom.axis is not None:
             break
-    body_reps = [(r, m) for r, m, ident in sorted(
-        (rmi for rmi in reps if rmi[2] not in _SKIP_IDS),
-        key=lambda rmi: _BODY_IDS.index(rmi[2]) if rmi[2] in _BODY_IDS else len(_BODY_IDS),
-    )]
+    body_reps = [(r, m, ident) for r, m, ident in reps if ident not in _SKIP_IDS]
+    if len(body_reps) > 1:  # preferred identifiers first; a stable sort keeps file order otherwise
+        body_reps.sort(key=lambda rmi: _BODY_RANK.get(rmi[2], len(_BODY_IDS)))
     solids: list[SolidInfo] = []
     directrices: list = []
     vertices: list = []
-    for rep, m0 in body_reps:
-        for item, m in resolver.iter_items(rep, m0):
+    for rep, m0, _ in body_reps:
+        for item, m in resolver.item_pairs(rep, m0):
             _collect(item, m, resolver, solids, directrices, vertices)
         if solids or directrices:
             break
     if not (solids or directrices or vertices):  # a Box representation as the last geometric hint
         for rep, m0, ident in reps:
             if ident == "box":
-                for item, m in resolver.iter_items(rep, m0):
+                for item, m in resolver.item_pairs(rep, m0):
                     _collect(item, m, resolver, solids, directrices, vertices)
     geom.has_body = bool(body_reps)
     geom.solids = solids

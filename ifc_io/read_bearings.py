@@ -41,7 +41,7 @@ def world_box(el, ctx) -> tuple[np.ndarray, np.ndarray] | None:
 def read_bearings(ctx) -> list[Bearing]:
     out: list[Bearing] = []
     mm = ctx.mm
-    for el in elements_once(ctx.model, BEARING_CLASSES):
+    for el in elements_once(ctx.index, BEARING_CLASSES):
         gid = text_value(el.GlobalId)
         if not gid.strip():
             ctx.warn(f"{el.is_a()} #{el.id()} has no GlobalId; not used as a bearing", None)

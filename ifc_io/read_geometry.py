@@ -23,7 +23,7 @@ matters on models of tens of thousands of members; :func:`to_numpy` gives a 4×4
 from __future__ import annotations
 
 import math
-from typing import Iterator
+from typing import Iterator, NoReturn
 
 import numpy as np
 
@@ -51,6 +51,7 @@ __all__ = [
     "apply",
     "apply_dir",
     "arg",
+    "arg_unchecked",
     "point",
 ]
 
@@ -88,7 +89,10 @@ def mul(a: Mat, b: Mat) -> Mat:
 
 def apply(m: Mat, p) -> tuple[float, float, float]:
     """Transform the point ``p`` (2 or 3 coordinates) by ``m``."""
-    x, y, z = _xyz(p)
+    if len(p) == 3:  # :func:`_xyz`, written out for the usual case
+        x, y, z = float(p[0]), float(p[1]), float(p[2])
+    else:
+        x, y, z = _xyz(p)
     return (m[0] * x + m[1] * y + m[2] * z + m[3],
             m[4] * x + m[5] * y + m[6] * z + m[7],
             m[8] * x + m[9] * y + m[10] * z + m[11])
@@ -96,7 +100,10 @@ def apply(m: Mat, p) -> tuple[float, float, float]:
 
 def apply_dir(m: Mat, d) -> tuple[float, float, float]:
     """Transform the direction ``d`` by the linear part of ``m`` (not normalised)."""
-    x, y, z = _xyz(d)
+    if len(d) == 3:  # :func:`_xyz`, written out for the usual case
+        x, y, z = float(d[0]), float(d[1]), float(d[2])
+    else:
+        x, y, z = _xyz(d)
     return (m[0] * x + m[1] * y + m[2] * z,
             m[4] * x + m[5] * y + m[6] * z,
             m[8] * x + m[9] * y + m[10] * z)
@@ -136,10 +143,15 @@ def norm(a) -> float:
     return math.sqrt(a[0] * a[0] + a[1] * a[1] + a[2] * a[2])
 
 
+def _missing(i: int) -> NoReturn:
+    """What :func:`arg` raises for attribute ``i`` of a missing entity (``None``)."""
+    raise TypeError(f"attribute {i} of a missing entity (a reference to an entity that is not in the file)")
+
+
 def _make_arg():
     """Positional attribute access, several times faster than ``entity.Name`` (IfcOpenShell's
     ``__getattr__`` looks the name up on every call). Used only for attributes whose position is
-    the same in IFC2X3, IFC4 and IFC4X3."""
+    the same in IFC2X3, IFC4 and IFC4X3. Returns ``(arg, arg_unchecked)``."""
     try:
         import ifcopenshell
 
@@ -150,18 +162,20 @@ def _make_arg():
                 # the wrapper crashes the interpreter (segmentation fault) when given None, which is
                 # what a reference to an entity missing from a damaged file reads as
                 if entity is None:
-                    raise TypeError(f"attribute {i} of a missing entity (a reference to an entity that "
-                                    f"is not in the file)")
+                    _missing(i)
                 return _get(entity, i)
 
-            return arg
+            return arg, getter
     except ImportError:  # pragma: no cover - ifc_io always has ifcopenshell
         pass
-    return lambda e, i: e[i]
+    return (lambda e, i: e[i]), (lambda e, i: e[i])
 
 
-arg = _make_arg()
-"""``arg(entity, i)``: the i-th attribute of ``entity``."""
+arg, arg_unchecked = _make_arg()
+"""``arg(entity, i)``: the i-th attribute of ``entity`` (a missing entity, ``None``, raises
+TypeError). ``arg_unchecked(entity, i)``: the same without the ``None`` test, for the hot paths,
+only where ``entity`` is known not to be ``None`` (IfcOpenShell crashes the interpreter on it)."""
+_get = arg_unchecked
 
 
 def unit(v) -> tuple[float, float, float]:
@@ -186,7 +200,12 @@ def _dir_ratios(direction) -> tuple[float, float, float] | None:
 
 def point(p) -> tuple[float, float, float]:
     """An IfcCartesianPoint's coordinates as three floats (2D points get z = 0)."""
-    return _xyz(arg(p, 0))  # IfcCartesianPoint.Coordinates
+    if p is None:
+        _missing(0)
+    c = _get(p, 0)  # IfcCartesianPoint.Coordinates
+    if len(c) == 3:  # :func:`_xyz`, written out for the usual case
+        return (float(c[0]), float(c[1]), float(c[2]))
+    return _xyz(c)
 
 
 def _unit3(v) -> tuple[float, float, float] | None:
@@ -197,16 +216,19 @@ def _unit3(v) -> tuple[float, float, float] | None:
 def _frame(z, x):
     """Right-handed orthonormal (x, y, z) from an axis ``z`` and a reference direction ``x``
     (plain tuples). A reference direction parallel to the axis (undefined in IFC) is replaced
-    by the nearest world axis."""
-    zz = _unit3(z) or (0.0, 0.0, 1.0)
+    by the nearest world axis. (:func:`_unit3` written out: this runs once per placement.)"""
+    n = math.sqrt(z[0] * z[0] + z[1] * z[1] + z[2] * z[2])
+    zz = (z[0] / n, z[1] / n, z[2] / n) if n > 0 else (0.0, 0.0, 1.0)
+    z0, z1, z2 = zz
     xx = None
-    for cand in (x, (1.0, 0.0, 0.0) if abs(zz[0]) < 0.9 else (0.0, 1.0, 0.0)):
-        d = cand[0] * zz[0] + cand[1] * zz[1] + cand[2] * zz[2]
-        p = (cand[0] - d * zz[0], cand[1] - d * zz[1], cand[2] - d * zz[2])
-        if math.sqrt(p[0] * p[0] + p[1] * p[1] + p[2] * p[2]) > 1e-9:
-            xx = _unit3(p)
+    for cand in (x, (1.0, 0.0, 0.0) if abs(z0) < 0.9 else (0.0, 1.0, 0.0)):
+        d = cand[0] * z0 + cand[1] * z1 + cand[2] * z2
+        p0, p1, p2 = cand[0] - d * z0, cand[1] - d * z1, cand[2] - d * z2
+        n = math.sqrt(p0 * p0 + p1 * p1 + p2 * p2)
+        if n > 1e-9:
+            xx = (p0 / n, p1 / n, p2 / n)
             break
-    yy = (zz[1] * xx[2] - zz[2] * xx[1], zz[2] * xx[0] - zz[0] * xx[2], zz[0] * xx[1] - zz[1] * xx[0])
+    yy = (z1 * xx[2] - z2 * xx[1], z2 * xx[0] - z0 * xx[2], z0 * xx[1] - z1 * xx[0])
     return xx, yy, zz
 
 
@@ -219,21 +241,21 @@ def axis2placement(placement) -> Mat:
     if placement is None:
         return IDENTITY
     cls = placement.is_a()
-    if cls == "IfcAxis2Placement2D":  # (Location, RefDirection)
-        location = arg(placement, 0)
-        loc = point(location) if location is not None else (0.0, 0.0, 0.0)
-        ref = _dir_ratios(arg(placement, 1)) or (1.0, 0.0, 0.0)
-        x = _unit3((ref[0], ref[1], 0.0)) or (1.0, 0.0, 0.0)
-        return _matrix(x, (-x[1], x[0], 0.0), (0.0, 0.0, 1.0), (loc[0], loc[1], 0.0))
     if cls == "IfcAxis2Placement3D":  # (Location, Axis, RefDirection) in every schema
-        location, axis, ref = arg(placement, 0), arg(placement, 1), arg(placement, 2)
-        loc = point(location) if location is not None else (0.0, 0.0, 0.0)
+        location, axis, ref = _get(placement, 0), _get(placement, 1), _get(placement, 2)
+        loc = _xyz(_get(location, 0)) if location is not None else (0.0, 0.0, 0.0)
         if axis is None and ref is None:
             return _matrix((1.0, 0.0, 0.0), (0.0, 1.0, 0.0), (0.0, 0.0, 1.0), loc)
-        z = _dir_ratios(axis) or (0.0, 0.0, 1.0)
-        x = _dir_ratios(ref) or (1.0, 0.0, 0.0)
-        xx, yy, zz = _frame(z, x)
-        return _matrix(xx, yy, zz, loc)
+        z = _xyz(_get(axis, 0)) if axis is not None else (0.0, 0.0, 1.0)  # DirectionRatios
+        x = _xyz(_get(ref, 0)) if ref is not None else (1.0, 0.0, 0.0)
+        x, y, z = _frame(z, x)
+        return (x[0], y[0], z[0], loc[0], x[1], y[1], z[1], loc[1], x[2], y[2], z[2], loc[2])  # _matrix
+    if cls == "IfcAxis2Placement2D":  # (Location, RefDirection)
+        location = _get(placement, 0)
+        loc = point(location) if location is not None else (0.0, 0.0, 0.0)
+        ref = _dir_ratios(_get(placement, 1)) or (1.0, 0.0, 0.0)
+        x = _unit3((ref[0], ref[1], 0.0)) or (1.0, 0.0, 0.0)
+        return _matrix(x, (-x[1], x[0], 0.0), (0.0, 0.0, 1.0), (loc[0], loc[1], 0.0))
     raise ValueError(f"{cls} is not an axis placement")
 
 
@@ -523,7 +545,17 @@ class PlacementResolver:
             else:
                 yield item, m
 
+    def item_pairs(self, representation, m: Mat = IDENTITY):
+        """:meth:`iter_items`, returning a tuple straight away for the usual representation of one
+        item that is not a mapped item (cheaper than starting a generator for it)."""
+        items = arg(representation, 3)  # IfcShapeRepresentation.Items
+        if type(items) is tuple and len(items) == 1 and items[0].is_a() != "IfcMappedItem":
+            return ((items[0], m),)
+        return self.iter_items(representation, m)
+
     def matrix(self, placement, _depth: int = 0) -> Mat:
+        """World matrix of an object placement (``None`` → identity); ValueError when it cannot be
+        resolved."""
         if placement is None:
             return IDENTITY
         pid = placement.id()
@@ -532,9 +564,21 @@ class PlacementResolver:
             return hit
         if _depth > 64:
             raise ValueError("placement chain is circular or deeper than 64 levels")
-        if placement.is_a() == "IfcLocalPlacement":  # (PlacementRelTo, RelativePlacement)
-            parent = self.matrix(arg(placement, 0), _depth + 1)
-            m = mul(parent, self.a2p(arg(placement, 1)))
+        cls = placement.is_a()
+        if cls == "IfcLocalPlacement":  # (PlacementRelTo, RelativePlacement)
+            parent = _get(placement, 0)
+            pm = IDENTITY if parent is None else (self._cache.get(parent.id()) or self.matrix(parent, _depth + 1))
+            relative = _get(placement, 1)
+            if relative is None:
+                rm = IDENTITY
+            else:
+                key = relative.id()
+                rm = self._a2p.get(key)
+                if rm is None:  # :meth:`a2p`, inlined
+                    rm = axis2placement(relative)
+                    if key:
+                        self._a2p[key] = rm
+            m = mul(pm, rm)
         elif placement.is_a("IfcGridPlacement"):
             m = self._grid_placement(placement, _depth)
         elif placement.is_a("IfcLinearPlacement"):
@@ -544,7 +588,7 @@ class PlacementResolver:
             parent = self.matrix(getattr(placement, "PlacementRelTo", None), _depth + 1)
             m = mul(parent, axis2placement(cart))
         else:
-            raise ValueError(f"{placement.is_a()} is not a supported object placement")
+            raise ValueError(f"{cls} is not a supported object placement")
         self._cache[pid] = m
         return m
 

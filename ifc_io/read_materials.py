@@ -38,6 +38,10 @@ class MaterialInfo:
     found: bool = False
 
 
+_NO_MATERIAL = MaterialInfo()
+"""What an element with no material association (own or type's) gets; shared, it is frozen."""
+
+
 def _material_labels(mat) -> list[str]:
     out = []
     for attr in ("Name", "Category"):
@@ -128,7 +132,9 @@ def material_info(element, index) -> MaterialInfo:
                 labels, from_type = tl, True
             if not profiles:
                 profiles = tp
-    profile = profiles[0] if len({p.id() for p in profiles}) == 1 else None
+    if own is None and not (labels or profiles or from_type):
+        return _NO_MATERIAL
+    profile = profiles[0] if profiles and len({p.id() for p in profiles}) == 1 else None
     return MaterialInfo(labels, profile, cardinal, from_type, found=own is not None or bool(labels))
 
 

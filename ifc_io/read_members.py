@@ -26,7 +26,7 @@ import math
 from ifc_io.read_relations import elements_once
 from engine.model import Member, Section
 from ifc_io.read_axes import member_axis, read_geometry, tessellated_axis
-from ifc_io.read_geometry import MAX_COORDINATE_MM, arg, text_value
+from ifc_io.read_geometry import MAX_COORDINATE_MM, arg, arg_unchecked, text_value
 from ifc_io.read_materials import material_info
 from ifc_io.read_profiles import cardinal_offset, profile_name, section_from_profile
 from rules.catalog import lookup_section
@@ -74,8 +74,11 @@ def member_role(ifc_class_of, predefined_type: str, start, end) -> str:
     return "brace"
 
 
-def _predefined(el, index) -> str:
-    p = getattr(el, "PredefinedType", None)
+def _predefined(el, index, attribute_at=None) -> str:
+    """The occurrence's PredefinedType, else its type's; USERDEFINED gives the ObjectType.
+    ``attribute_at(el, name)``: a faster reader of the occurrence's attribute (same result as
+    ``getattr(el, name, None)``)."""
+    p = attribute_at(el, "PredefinedType") if attribute_at is not None else getattr(el, "PredefinedType", None)
     if p in (None, "NOTDEFINED", "USERDEFINED"):
         t = index.element_type(el)
         tp = getattr(t, "PredefinedType", None) if t is not None else None
@@ -106,10 +109,15 @@ def _name_candidates(el, index, profile) -> list[str]:
     return out
 
 
-class _SectionCache:
+class _MemberCaches:
+    """Per-read caches: the section of each parametric profile (by entity id) and the position
+    of a named attribute in each IFC class (the attribute order is fixed per class and schema,
+    and one read is one schema)."""
+
     def __init__(self, ctx):
         self.ctx = ctx
         self.by_profile: dict[int, Section | None] = {}
+        self._positions: dict[tuple[str, str], int | None] = {}
 
     def parametric(self, profile) -> Section | None:
         key = profile.id()
@@ -117,8 +125,20 @@ class _SectionCache:
             self.by_profile[key] = section_from_profile(profile, self.ctx.mm)
         return self.by_profile[key]
 
+    def attribute(self, el, name: str):
+        """``getattr(el, name, None)`` for an explicit attribute, read by position (IfcOpenShell's
+        attribute lookup by name costs several positional reads)."""
+        key = (el.is_a(), name)
+        try:
+            i = self._positions[key]
+        except KeyError:  # where IfcOpenShell's __getattr__ reads it from: forward attributes (1)
+            i = self._positions[key] = el.get_argument_index(name) if el.get_attribute_category(name) == 1 else None
+        if i is None:  # not an explicit attribute of this class: IfcOpenShell's own lookup
+            return getattr(el, name, None)
+        return arg_unchecked(el, i)
 
-def _section(el, info, geom, cache: _SectionCache, ctx) -> tuple[Section, object | None, str | None]:
+
+def _section(el, info, geom, cache: _MemberCaches, ctx) -> tuple[Section, object | None, str | None]:
     """(section, profile used, problem sentence or None)."""
     profile = info.profile
     if profile is None and geom.solid is not None:
@@ -137,9 +157,13 @@ def _section(el, info, geom, cache: _SectionCache, ctx) -> tuple[Section, object
             f"section unknown: {what} is not parametric and no name of it is in the section catalog")
 
 
+def _is_arbitrary(profile) -> bool:
+    return profile is not None and profile.is_a() in _ARBITRARY
+
+
 def _web_along_profile_x(profile, section: Section, ctx) -> bool:
     """For an arbitrary outline: does the catalog section's depth run along the outline's x?"""
-    if profile is None or profile.is_a() not in _ARBITRARY or section.kind not in ("I", "channel", "tee"):
+    if not _is_arbitrary(profile) or section.kind not in ("I", "channel", "tee"):
         return False
     bbox = ctx.bbox(profile)
     if bbox is None or section.depth is None or section.width is None:
@@ -151,7 +175,7 @@ def _web_along_profile_x(profile, section: Section, ctx) -> bool:
 
 
 def _profile_centre(profile, ctx) -> tuple[float, float]:
-    if profile is None or profile.is_a() not in _ARBITRARY:
+    if not _is_arbitrary(profile):
         return (0.0, 0.0)
     bbox = ctx.bbox(profile)
     if bbox is None:
@@ -163,11 +187,20 @@ def _vec(v, scale: float = 1.0) -> tuple[float, float, float]:
     return (float(v[0]) * scale, float(v[1]) * scale, float(v[2]) * scale)
 
 
+def _finite_within(values) -> bool:
+    """Are all ``values`` finite and within :data:`MAX_COORDINATE_MM` of zero?"""
+    isfinite = math.isfinite
+    for c in values:
+        if not (isfinite(c) and abs(c) <= MAX_COORDINATE_MM):
+            return False
+    return True
+
+
 def read_members(ctx, steel_resolver, properties: tuple[str, ...] = ()) -> list[Member]:
     """Every IfcBeam, IfcColumn and IfcMember with a usable axis (warnings go to ``ctx``)."""
     members: list[Member] = []
-    cache = _SectionCache(ctx)
-    for el in elements_once(ctx.model, ("IfcBeam", "IfcColumn", "IfcMember")):
+    cache = _MemberCaches(ctx)
+    for el in elements_once(ctx.index, ("IfcBeam", "IfcColumn", "IfcMember")):
         try:
             m = _read_member(el, ctx, cache, steel_resolver, properties)
         except Exception as exc:  # one bad element never stops the read
@@ -181,25 +214,30 @@ def read_members(ctx, steel_resolver, properties: tuple[str, ...] = ()) -> list[
 
 def _read_member(el, ctx, cache, steel_resolver, properties) -> Member | None:
     # IfcElement attributes by position (the same in IFC2X3, IFC4, IFC4X3): GlobalId 0, Name 2, Tag 7
-    gid = text_value(arg(el, 0))
+    get = arg_unchecked  # ``el`` comes from by_type: never None
+    gid = text_value(get(el, 0))
     cls = el.is_a()
-    name, tag = text_value(arg(el, 2)), text_value(arg(el, 7))
+    name, tag = text_value(get(el, 2)), text_value(get(el, 7))
     label = tag or name
     who = f"{cls} {label!r}" if label else cls
     if not gid.strip():
         ctx.warn(f"{who} (#{el.id()}) has no GlobalId; member skipped (repair the model)", None)
         return None
+    index = ctx.index
     try:
-        geom = read_geometry(el, ctx.index, ctx.resolver)
+        geom = read_geometry(el, index, ctx.resolver)
     except ValueError as exc:  # an unresolvable placement
         ctx.warn(f"{who}: {exc}; member skipped", gid)
         return None
-    info = material_info(el, ctx.index)
+    info = material_info(el, index)
     section, profile, problem = _section(el, info, geom, cache, ctx)
     if problem:
         ctx.warn(f"{who}: {problem}", gid)
-    swap = _web_along_profile_x(profile, section, ctx)
-    centre = _profile_centre(profile, ctx)
+    if _is_arbitrary(profile):
+        swap = _web_along_profile_x(profile, section, ctx)
+        centre = _profile_centre(profile, ctx)
+    else:
+        swap, centre = False, (0.0, 0.0)
     card = None
     if info.cardinal_point is not None and section.width is not None and section.depth is not None:
         card = cardinal_offset(info.cardinal_point, section.width / ctx.mm, section.depth / ctx.mm)
@@ -217,7 +255,7 @@ def _read_member(el, ctx, cache, steel_resolver, properties) -> Member | None:
     if axis.note:
         ctx.warn(f"{who}: {axis.note}", gid)
     start, end = _vec(axis.start, scale), _vec(axis.end, scale)
-    if not all(math.isfinite(c) and abs(c) <= MAX_COORDINATE_MM for c in start + end):
+    if not _finite_within(start + end):
         ctx.warn(f"{who}: axis end coordinates are not finite or lie more than {MAX_COORDINATE_MM:g} mm "
                  f"from the origin (corrupt placement or geometry); member skipped", gid)
         return None
@@ -229,15 +267,15 @@ def _read_member(el, ctx, cache, steel_resolver, properties) -> Member | None:
     if length < MIN_AXIS_LENGTH_MM:
         ctx.warn(f"{who}: zero-length axis at {tuple(round(c, 1) for c in start)} mm; member skipped", gid)
         return None
-    predefined = _predefined(el, ctx.index)
+    predefined = _predefined(el, index, cache.attribute)
     role = member_role(el.is_a, predefined, start, end)
     steel, steel_problem = steel_resolver.resolve(info.labels)
     if steel_problem:
         ctx.warn(f"{who}: {steel_problem}", gid)
     offset = None
     if axis.axis_offset is not None:
-        offset = tuple(round(float(v) * scale, 3) + 0.0 for v in axis.axis_offset)
-        if not all(math.isfinite(c) and abs(c) <= MAX_COORDINATE_MM for c in offset):
+        offset = tuple([round(float(v) * scale, 3) + 0.0 for v in axis.axis_offset])
+        if not _finite_within(offset):
             ctx.warn(f"{who}: the offset of its axis from the body is not finite or lies more than "
                      f"{MAX_COORDINATE_MM:g} mm away (corrupt placement or geometry); member skipped", gid)
             return None
@@ -251,9 +289,15 @@ def _read_member(el, ctx, cache, steel_resolver, properties) -> Member | None:
     for dotted in properties:
         pset, _, prop = dotted.partition(".")
         if pset and prop:
-            v = ctx.index.property_value(el, pset, prop)
+            v = index.property_value(el, pset, prop)
             if v is not None:
                 props[dotted] = v
+    storey = index.storey_name(el)
+    web_dir = None
+    if axis.web_dir is not None:
+        web_dir = _vec(axis.web_dir)
+        if not all(map(math.isfinite, web_dir)):
+            web_dir = None
     return Member(
         global_id=gid,
         ifc_class=cls,
@@ -264,9 +308,9 @@ def _read_member(el, ctx, cache, steel_resolver, properties) -> Member | None:
         steel=steel,
         name=name,
         tag=tag,
-        storey=ctx.index.storey_name(el),
+        storey=storey,
         predefined_type=predefined,
-        web_dir=_vec(axis.web_dir) if axis.web_dir is not None and all(map(math.isfinite, _vec(axis.web_dir))) else None,
+        web_dir=web_dir,
         cardinal_point=info.cardinal_point,
         axis_offset=offset,
         axis_source=axis.source,

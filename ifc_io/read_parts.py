@@ -179,7 +179,7 @@ def _predefined(el, index) -> str:
 def read_parts(ctx) -> list[ConnectionPart]:
     """Every connection part of the model (warnings go to ``ctx``)."""
     parts: list[ConnectionPart] = []
-    for el in elements_once(ctx.model, [c for c, _ in PART_CLASSES]):
+    for el in elements_once(ctx.index, [c for c, _ in PART_CLASSES]):
         kind = next(k for c, k in PART_CLASSES if el.is_a(c))
         try:
             part = _read_part(el, kind, ctx)

@@ -40,12 +40,14 @@ def _by_type(model, cls: str):
 
 def elements_once(model, classes):
     """Every element of the given IFC classes (subtypes included), each once, in class order then
-    file order; a class the schema does not have is skipped."""
+    file order; a class the schema does not have is skipped. ``model``: an ``ifcopenshell.file``
+    or a :class:`RelationIndex` (which keeps each class's list for the rest of the read)."""
     seen: set[int] = set()
     for cls in classes:
         for el in _by_type(model, cls):
-            if el.id() not in seen:
-                seen.add(el.id())
+            key = el.id()
+            if key not in seen:
+                seen.add(key)
                 yield el
 
 
@@ -65,7 +67,9 @@ class RelationIndex:
         self.psets: dict[int, list] = defaultdict(list)
         self._storey_cache: dict[int, str] = {}
         self._storey_names: dict[int, str] = {}
+        self._storey_of_structure: dict[int, str] = {}  # spatial structure id → storey name
         self.material_cache: dict[int, object] = {}  # read_materials: per material select
+        self._class_lists: dict[str, list] = {}
 
         # Positional reads (attributes 4 and 5 of these relationships are the same in IFC2X3,
         # IFC4 and IFC4X3) keep this pass cheap on large models.
@@ -117,6 +121,15 @@ class RelationIndex:
                     self.psets[obj.id()].append(pdef)
 
     # ------------------------------------------------------------------------------------
+    def by_type(self, cls: str) -> list:
+        """``model.by_type(cls)``, kept for the rest of the read: the members, bearings and parts
+        read the same lists the class counts need (RuntimeError, as the model raises it, for a
+        class the schema does not have)."""
+        hit = self._class_lists.get(cls)
+        if hit is None:
+            hit = self._class_lists[cls] = self.model.by_type(cls)
+        return hit
+
     def element_type(self, element):
         """The element's type object (IfcTypeObject) or ``None``; IFC2X3 and IFC4 alike."""
         return self.type_of.get(element.id())
@@ -128,17 +141,28 @@ class RelationIndex:
         hit = self._storey_cache.get(key)
         if hit is not None:
             return hit
-        node, container = element, None
+        node_id, container = key, None
         for _ in range(16):
-            container = self.container.get(node.id())
+            container = self.container.get(node_id)
             if container is not None:
                 break
-            whole = self.parent.get(node.id())
+            whole = self.parent.get(node_id)
             if whole is None:
                 break
-            node = whole
+            node_id = whole.id()
         name = ""
-        struct = container
+        if container is not None:
+            cid = container.id()
+            name = self._storey_of_structure.get(cid)
+            if name is None:
+                name = self._storey_of_structure[cid] = self._structure_storey(container)
+        self._storey_cache[key] = name
+        return name
+
+    def _structure_storey(self, struct) -> str:
+        """Name of the storey a spatial structure element is, or is in (walked up the spatial
+        tree), or ``""``."""
+        name = ""
         for _ in range(16):
             if struct is None:
                 break
@@ -149,7 +173,6 @@ class RelationIndex:
                     name = self._storey_names[sid] = (text_value(struct.Name) or text_value(getattr(struct, "LongName", None))).strip()
                 break
             struct = self.parent.get(struct.id()) or self.container.get(struct.id())
-        self._storey_cache[key] = name
         return name
 
     def assembly_of(self, element):

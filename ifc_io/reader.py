@@ -142,7 +142,7 @@ def read_frame(source: Any, *, default_steel: str = "default", config: dict | No
     counts: dict[str, int] = {}
     for cls in COUNTED_CLASSES:
         try:
-            counts[cls] = len(model.by_type(cls))
+            counts[cls] = len(ctx.index.by_type(cls))
         except RuntimeError:
             continue
     if not members and counts.get("IfcStructuralCurveMember"):
