@@ -71,30 +71,42 @@ def _carries(joint: Joint, roles: dict[str, str]) -> bool:
 
 def build_graph(members: Sequence[Member], joints: Iterable[Joint],
                 bearings: Sequence[Bearing] = ()) -> nx.MultiDiGraph:
-    """Members (and bearings that carry a joint) as nodes, joints with a support as edges."""
+    """Members (and bearings that carry a joint) as nodes, joints with a support as edges.
+
+    Member nodes go in at once (``add_nodes_from``, then their attributes); then the joints in
+    order: a free end is recorded on its member's node, a bearing gets its node the first time it
+    carries a joint, and each joint with a support is one edge keyed by the joint id.
+    """
     g = nx.MultiDiGraph()
-    roles: dict[str, str] = {}
+    roles: dict[str, str] = {m.global_id: m.role for m in members}
+    g.add_nodes_from([m.global_id for m in members])
+    nodes = g.nodes
     for m in members:
-        roles[m.global_id] = m.role
-        g.add_node(m.global_id, **{NODE_ROLE: m.role, NODE_IFC_CLASS: m.ifc_class, NODE_LABEL: m.label,
+        nodes[m.global_id].update({NODE_ROLE: m.role, NODE_IFC_CLASS: m.ifc_class, NODE_LABEL: m.label,
                                    NODE_STOREY: m.storey, NODE_SECTION: m.section.name,
                                    NODE_LENGTH: m.length, NODE_FREE_ENDS: ()})
     by_id = {b.global_id: b for b in bearings}
+    present = set(roles)          # the graph's nodes so far
+    add_edge = g.add_edge
     for j in joints:
-        if j.support is None:
-            if j.beam in g:
-                g.nodes[j.beam][NODE_FREE_ENDS] = g.nodes[j.beam][NODE_FREE_ENDS] + (j.end,)
+        support = j.support
+        if support is None:
+            if j.beam in present:
+                attrs = nodes[j.beam]
+                attrs[NODE_FREE_ENDS] = attrs[NODE_FREE_ENDS] + (j.end,)
             continue
-        if j.support not in g:
-            b = by_id.get(j.support)
-            g.add_node(j.support, **{NODE_ROLE: "bearing", NODE_IFC_CLASS: b.ifc_class if b else "",
-                                     NODE_LABEL: (b.name if b else "") or j.support,
-                                     NODE_STOREY: b.storey if b else "", NODE_SECTION: "",
-                                     NODE_LENGTH: None, NODE_FREE_ENDS: ()})
-        g.add_edge(j.beam, j.support, key=j.id, **{
+        if support not in present:
+            b = by_id.get(support)
+            g.add_node(support, **{NODE_ROLE: "bearing", NODE_IFC_CLASS: b.ifc_class if b else "",
+                                   NODE_LABEL: (b.name if b else "") or support,
+                                   NODE_STOREY: b.storey if b else "", NODE_SECTION: "",
+                                   NODE_LENGTH: None, NODE_FREE_ENDS: ()})
+            present.add(support)
+        add_edge(j.beam, support, j.id, **{
             EDGE_END: j.end, EDGE_KIND: j.kind, EDGE_GEOMETRY: j.geometry, EDGE_STIFFNESS: j.stiffness,
             EDGE_REASONS: j.reasons, EDGE_JOINT_ID: j.id, EDGE_SOURCE: j.source,
             EDGE_CARRIES: _carries(j, roles)})
+        present.add(j.beam)
     return g
 
 

@@ -111,18 +111,21 @@ class MemberArrays:
         web_known = web_known | ~vertical
         x = np.cross(y, a)
 
-        sec = [m.section for m in members]
-        depth = np.array([_num(s.depth) for s in sec])
-        width = np.array([_num(s.width) for s in sec])
-        tw = np.array([_num(s.web_thickness) for s in sec])
-        tf = np.array([_num(s.flange_thickness) for s in sec])
-        rr = np.array([_num(s.root_radius) for s in sec])
-        kind = [s.kind for s in sec]
+        # section dimensions (mm), read once per distinct section object, gathered per member
+        sec_row: dict[int, int] = {}
+        sec_of = np.array([sec_row.setdefault(id(m.section), len(sec_row)) for m in members],
+                          dtype=np.int64)
+        distinct = list({id(m.section): m.section for m in members}.values())
+        dims = np.array([(_num(s.depth), _num(s.width), _num(s.web_thickness),
+                          _num(s.flange_thickness), _num(s.root_radius)) for s in distinct],
+                        dtype=float).reshape(-1, 5)[sec_of]
+        depth, width, tw, tf, rr = (np.ascontiguousarray(dims[:, j]) for j in range(5))
+        i_or_channel = np.array([s.kind in ("I", "channel") for s in distinct], dtype=bool)[sec_of]
         section_known = np.isfinite(depth)
         width = np.where(np.isfinite(width), width, depth)   # CHS / square unknown width
         hd = np.where(section_known, depth / 2.0, tol.unknown_half_size_mm)
         hb = np.where(np.isfinite(width), width / 2.0, tol.unknown_half_size_mm)
-        is_i = np.array([k in ("I", "channel") for k in kind]) & np.isfinite(tw) & np.isfinite(tf)
+        is_i = i_or_channel & np.isfinite(tw) & np.isfinite(tf)
         htw = np.where(is_i, tw / 2.0, hb)
         tf0 = np.where(np.isfinite(tf), tf, 0.0)
         rr0 = np.where(np.isfinite(rr), rr, 0.0)
@@ -238,12 +241,28 @@ def copes_for_web_joints(arr: MemberArrays, beam: np.ndarray, end: np.ndarray, s
     bot_excess = (bot_s + arr.tf[sup] + arr.rr[sup]) - bot_b
     top_depth = round_up(top_excess)
     bot_depth = round_up(bot_excess)
+    # one (frozen) Cope per distinct size, shared by the joints that need it
+    made: dict[tuple[str, float, float], Cope] = {}
+
+    def cope(where: str, depth: float, length: float) -> Cope:
+        if depth == 0.0 or length == 0.0:   # keep the sign of a zero as computed
+            return Cope(where, depth, length)
+        key = (where, depth, length)
+        c = made.get(key)
+        if c is None:
+            c = made[key] = Cope(where, depth, length)
+        return c
+
+    top = (need_len & (top_excess > 0.0)).tolist()
+    bot = (need_len & (bot_excess > 0.0)).tolist()
     copes: list[tuple[Cope, ...]] = []
-    for i in range(len(beam)):
-        c: list[Cope] = []
-        if need_len[i] and top_excess[i] > 0.0:
-            c.append(Cope("top", float(top_depth[i]), float(length[i])))
-        if need_len[i] and bot_excess[i] > 0.0:
-            c.append(Cope("bottom", float(bot_depth[i]), float(length[i])))
-        copes.append(tuple(c))
+    for t_i, b_i, td, bd, ln in zip(top, bot, top_depth.tolist(), bot_depth.tolist(), length.tolist()):
+        if t_i and b_i:
+            copes.append((cope("top", td, ln), cope("bottom", bd, ln)))
+        elif t_i:
+            copes.append((cope("top", td, ln),))
+        elif b_i:
+            copes.append((cope("bottom", bd, ln),))
+        else:
+            copes.append(())
     return tos, copes

@@ -53,10 +53,11 @@ import numpy as np
 from engine.graph import build_graph
 from engine.joint_geometry import (MemberArrays, angle_between_deg, copes_for_web_joints,
                                    pair_metrics, tops_and_bottoms)
-from engine.model import (Bearing, DataWarning, ExplicitConnection, Joint, JointGeometry, Member,
+from engine.model import (Bearing, Cope, DataWarning, ExplicitConnection, Joint, JointGeometry, Member,
                           joint_id)
 from engine.spatial import SegmentGrid, points_in_boxes
-from engine.stiffness import POLICIES, SupportFacts, apply_policy, classify
+from engine.stiffness import (POLICIES, SupportFacts, apply_policy, classify, classify_batch,
+                              relative_stiffness_batch)
 from engine.errors import ConfigError
 from engine.tolerances import Tolerances
 
@@ -66,6 +67,7 @@ __all__ = ["UnresolvedEnd", "JointFinding", "find_joints", "joint_rows"]
 _NONE, _COL_FACE, _COL_CAP, _BEAM_WEB, _BEAM_OVER, _SPLICE, _END_MEET, _LANDS, _WALL = range(9)
 _PRIORITY = {_COL_FACE: 1, _COL_CAP: 1, _BEAM_WEB: 2, _BEAM_OVER: 2, _SPLICE: 3, _END_MEET: 4,
              _WALL: 5, _LANDS: 6}
+_PRIO_TABLE = np.array([_PRIORITY.get(c, 99) for c in range(9)], dtype=np.int64)
 _BEAM, _COLUMN, _BRACE, _OTHER = 0, 1, 2, 3
 _ENDS = ("start", "end")
 
@@ -289,20 +291,14 @@ def _find_joints(members: Sequence[Member], bearings: Sequence[Bearing],
     unresolved: list[UnresolvedEnd] = []
 
     # ---- ends
-    em_l, ek_l = [], []
-    for i, m in enumerate(members):
-        if arr.role[i] in (_BEAM, _BRACE, _COLUMN):
-            if not arr.valid_axis[i]:
-                if arr.role[i] != _COLUMN:
-                    for k in (0, 1):
-                        unresolved.append(UnresolvedEnd(m.global_id, _ENDS[k],
-                                                        "axis unknown (zero length or not finite): "
-                                                        "the end cannot be located"))
-                continue
-            em_l += [i, i]
-            ek_l += [0, 1]
-    em = np.array(em_l, dtype=np.int64)
-    ek = np.array(ek_l, dtype=np.int64)
+    has_ends = np.isin(arr.role, (_BEAM, _BRACE, _COLUMN))
+    for i in np.flatnonzero(has_ends & ~arr.valid_axis & (arr.role != _COLUMN)).tolist():
+        for k in (0, 1):
+            unresolved.append(UnresolvedEnd(members[i].global_id, _ENDS[k],
+                                            "axis unknown (zero length or not finite): "
+                                            "the end cannot be located"))
+    em = np.repeat(np.flatnonzero(has_ends & arr.valid_axis), 2)
+    ek = np.tile(np.array([0, 1], dtype=np.int64), len(em) // 2)
     pts = arr.end_point(em, ek) if len(em) else np.zeros((0, 3))
 
     # ---- grid candidates
@@ -322,9 +318,10 @@ def _find_joints(members: Sequence[Member], bearings: Sequence[Bearing],
     # continuation map: (member, end) -> members continuing collinear from that end
     cont: dict[tuple[int, int], set[int]] = defaultdict(set)
     spl = np.flatnonzero(pr.code == _SPLICE)
-    for r in spl:
-        m, k, s = int(em[pr.e[r]]), int(ek[pr.e[r]]), int(pr.s[r])
-        ks = 0 if pr.t[r] <= arr.length[s] / 2.0 else 1
+    spl_s = pr.s[spl]
+    spl_ks = np.where(pr.t[spl] <= arr.length[spl_s] / 2.0, 0, 1)
+    for m, k, s, ks in zip(em[pr.e[spl]].tolist(), ek[pr.e[spl]].tolist(), spl_s.tolist(),
+                           spl_ks.tolist()):
         cont[(m, k)].add(s)
         cont[(s, ks)].add(m)
 
@@ -385,32 +382,32 @@ def _find_joints(members: Sequence[Member], bearings: Sequence[Bearing],
     used_explicit: set[tuple[str, str]] = set()
 
     # ---- per-end selection
+    # Most ends have one candidate of the best kind and no explicit relation: those (and column ends,
+    # which only take a splice) are decided for all ends at once; the rest go through _select.
     order = np.lexsort((pr.score, pr.e))
-    bounds: dict[int, tuple[int, int]] = {}
-    if len(order):
-        es = pr.e[order]
-        starts = np.flatnonzero(np.r_[True, es[1:] != es[:-1]])
-        stops = np.r_[starts[1:], len(es)]
-        for a0, a1 in zip(starts, stops):
-            bounds[int(es[a0])] = (int(a0), int(a1))
-    prio_of = np.array([_PRIORITY.get(int(c), 99) for c in pr.code])
+    n_end = len(em)
+    counts = np.bincount(pr.e, minlength=n_end)
+    first = np.cumsum(counts) - counts
+    prio_of = _PRIO_TABLE[pr.code]
+    role_e = arr.role[em]
+    exp_ids = set(exp_any) | {x for x, _ in exp_end}
+    explicit_e = (np.fromiter((g in exp_ids for g in arr.ids), dtype=bool, count=len(arr.ids))[em]
+                  if exp_ids else np.zeros(n_end, dtype=bool))
+    spl_m = em[pr.e[spl]]
+    chain_keys = np.sort(np.r_[np.minimum(spl_m, spl_s) * len(members) + np.maximum(spl_m, spl_s)])
+    row_of, via_of = _quick_rows(arr, em, ek, pr, prio_of, order, first, counts, explicit_e,
+                                 chain_keys)
 
     choices: dict[int, _Choice] = {}
     no_candidate: list[int] = []
     pending_meets: list[tuple[int, int, str]] = []   # end meets the end of another beam
     forced: list[tuple[int, int, str]] = []   # explicit pairs the geometry did not find
-    for e_idx in range(len(em)):
+    first_l, counts_l, order_l = first.tolist(), counts.tolist(), order.tolist()
+    for e_idx in np.flatnonzero((row_of < 0) & (role_e != _COLUMN)).tolist():
         m = int(em[e_idx])
         role = arr.role[m]
         gid, endname = arr.ids[m], _ENDS[int(ek[e_idx])]
-        a0, a1 = bounds.get(e_idx, (0, 0))
-        rows = [int(r) for r in order[a0:a1]]
-        if role == _COLUMN:
-            col_rows = [r for r in rows if pr.code[r] == _SPLICE]
-            if not col_rows or not _is_lower_end(arr, m, int(ek[e_idx])):
-                continue
-            choices[e_idx] = _Choice(e_idx, row=col_rows[0])
-            continue
+        rows = order_l[first_l[e_idx]:first_l[e_idx] + counts_l[e_idx]]
         exp = dict(exp_any.get(gid, {}))
         exp.update(exp_end.get((gid, endname), {}))
         exp_rows = [r for r in rows if arr.ids[int(pr.s[r])] in exp]
@@ -460,13 +457,22 @@ def _find_joints(members: Sequence[Member], bearings: Sequence[Bearing],
             continue
         no_candidate.append(e_idx)
 
+    def choice_at(e: int) -> "_Choice | None":
+        """The choice made for end ``e`` (-1: no such end), from either path."""
+        if e < 0:
+            return None
+        if e in choices:
+            return choices[e]
+        return _Choice(e, row=int(row_of[e])) if row_of[e] >= 0 else None
+
     # an end meeting the end of another beam: a web joint near that beam's end when that end is
     # carried by something else; a corner of two beams carrying only each other stays unresolved
-    end_of = {(int(em[i]), int(ek[i])): i for i in range(len(em))}
+    end_of = np.full((len(members), 2), -1, dtype=np.int64)
+    end_of[em, ek] = np.arange(n_end)
     for e_idx, r, reason in pending_meets:
         m, s_m = int(em[e_idx]), int(pr.s[r])
         ks = 0 if pr.t[r] <= arr.length[s_m] / 2.0 else 1
-        other = choices.get(end_of.get((s_m, ks), -1))
+        other = choice_at(int(end_of[s_m, ks]))
         carried = other is not None and (other.wall is not None or (
             other.row is not None and int(pr.s[other.row]) != m))
         if carried:
@@ -512,7 +518,7 @@ def _find_joints(members: Sequence[Member], bearings: Sequence[Bearing],
                     used_explicit.add((x, y))
 
     # ---- free ends
-    supported_members = {int(em[c.e]) for c in choices.values()}
+    supported_members = {int(em[c.e]) for c in choices.values()} | set(em[row_of >= 0].tolist())
     for e_idx in no_candidate:
         m = int(em[e_idx])
         gid, endname = arr.ids[m], _ENDS[int(ek[e_idx])]
@@ -528,8 +534,16 @@ def _find_joints(members: Sequence[Member], bearings: Sequence[Bearing],
                               "no support at either end within the tolerances: the member floats "
                               "(missing support, misplaced axis, or tolerances too tight)"))
 
-    joints = _build_joints(arr, members, bearings, em, ek, pts, pr, choices, cont, tol, policy)
-    joints.sort(key=lambda j: (index[j.beam], _ENDS.index(j.end)))
+    for e_idx, ch in choices.items():
+        if ch.row is not None:
+            row_of[e_idx] = ch.row
+    joints, joint_e = _build_joints(arr, members, bearings, em, ek, pr, row_of, via_of, choices, cont,
+                                    tol, policy)
+    if len(index) != len(members):
+        # duplicate GlobalIds: order by the last member carrying the id, as the index does
+        last = np.array([index[g] for g in arr.ids], dtype=np.int64)
+        key = last[em[joint_e]] * 2 + ek[joint_e]
+        joints = [joints[i] for i in np.argsort(key, kind="stable").tolist()]
     unresolved.sort(key=lambda u: (index.get(u.beam, -1), _ENDS.index(u.end) if u.end in _ENDS else 2))
     graph = build_graph(members, joints, bearings)
     return JointFinding(tuple(joints), tuple(unresolved), tuple(warnings), graph)
@@ -551,9 +565,89 @@ def _embed_length(p: np.ndarray, u: np.ndarray, lo: np.ndarray, hi: np.ndarray) 
     return float(max(0.0, min(ts))) if ts else 0.0
 
 
-def _is_lower_end(arr: MemberArrays, m: int, k: int) -> bool:
-    z0, z1 = arr.c0[m][2], arr.c1[m][2]
-    return (z0 <= z1) if k == 0 else (z1 < z0)
+def _quick_rows(arr: MemberArrays, em: np.ndarray, ek: np.ndarray, pr: _Pairs, prio_of: np.ndarray,
+                order: np.ndarray, first: np.ndarray, counts: np.ndarray, explicit_e: np.ndarray,
+                chain_keys: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """The chosen candidate row per end where no per-end logic is needed, else -1, and the member
+    that makes the support continuous (``via``), else -1 (arrays over ends).
+
+    ``order`` sorts the candidate rows by end, then score; ``first``/``counts`` give each end's slice
+    of it; ``chain_keys`` are the sorted keys ``min * n + max`` of the member pairs joined by a splice
+    (collinear segments of one member). Decided here, as :func:`_select` would:
+
+    - a column's lower end takes its nearest splice (its other candidates are not joints);
+    - a beam or brace end with no explicit relation and no end-meets-end candidate (or one, but a
+      column of the best kind), whose candidates of the best kind are one support, or two segments
+      of one member (one chain): the single support; of a chain, the lower segment when the support
+      is a column (the upper one is ``via``), else the nearer (then by GlobalId). A beam landing on
+      a brace is left to :func:`_select`, as is every other end.
+    """
+    n_end = len(em)
+    row = np.full(n_end, -1, dtype=np.int64)
+    via = np.full(n_end, -1, dtype=np.int64)
+    if len(order) == 0:
+        return row, via
+    es = pr.e[order]
+    code_s = pr.code[order]
+    p_s = prio_of[order]
+    has = counts > 0
+    best = np.full(n_end, 99, dtype=np.int64)
+    best[has] = np.minimum.reduceat(p_s, first[has])
+    is_best = p_s == best[es]
+    n_best = np.bincount(es[is_best], minlength=n_end)
+    meet = np.bincount(es[code_s == _END_MEET], minlength=n_end) > 0
+    role_e = arr.role[em]
+    # end-meets-end candidates matter only where, promoted to girder-web candidates, they could
+    # join the best group (not where a column is the best kind)
+    plain = (((role_e == _BEAM) | (role_e == _BRACE)) & ~explicit_e
+             & (~meet | (best < _PRIORITY[_BEAM_WEB]))
+             & ~((role_e == _BEAM) & (best == _PRIORITY[_LANDS])))
+    # the first two best rows of each end, in score order
+    pos = np.flatnonzero(is_best)
+    ends_b, at = _first_of_runs(es[pos])
+    r0 = np.full(n_end, -1, dtype=np.int64)
+    r1 = np.full(n_end, -1, dtype=np.int64)
+    r0[ends_b] = order[pos[at]]
+    two = ends_b[n_best[ends_b] == 2]
+    r1[two] = order[pos[at[n_best[ends_b] == 2] + 1]]
+    one = plain & (n_best == 1)
+    row[one] = r0[one]
+    # two best rows on two segments of one member
+    e2 = np.flatnonzero(plain & (n_best == 2))
+    if len(e2) and len(chain_keys):
+        a, b = r0[e2], r1[e2]
+        sa, sb = pr.s[a], pr.s[b]
+        key = np.minimum(sa, sb) * len(arr.ids) + np.maximum(sa, sb)
+        hit = np.searchsorted(chain_keys, key)
+        chained = chain_keys[np.minimum(hit, len(chain_keys) - 1)] == key
+        e2, a, b, sa, sb = e2[chained], a[chained], b[chained], sa[chained], sb[chained]
+        col = (pr.code[a] == _COL_FACE) | (arr.role[sa] == _COLUMN)
+        z = np.minimum(arr.c0[:, 2], arr.c1[:, 2])
+        ka = np.where(col, z[sa], pr.score[a])
+        kb = np.where(col, z[sb], pr.score[b])
+        b_first = kb < ka
+        tie = np.flatnonzero(kb == ka)
+        ids = arr.ids
+        b_first[tie] = [ids[y] < ids[x] for x, y in zip(sa[tie].tolist(), sb[tie].tolist())]
+        row[e2] = np.where(b_first, b, a)
+        via[e2] = np.where(b_first, sa, sb)
+    # column ends: the lower end on a splice
+    sp = np.flatnonzero(code_s == _SPLICE)
+    ends_sp, first_sp = _first_of_runs(es[sp])
+    col_row = np.full(n_end, -1, dtype=np.int64)
+    col_row[ends_sp] = order[sp[first_sp]]
+    z0, z1 = arr.c0[em, 2], arr.c1[em, 2]
+    lower = np.where(ek == 0, z0 <= z1, z1 < z0)
+    col_end = (role_e == _COLUMN) & lower
+    row[col_end] = col_row[col_end]
+    return row, via
+
+
+def _first_of_runs(sorted_values: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Distinct values of a sorted array and the index where each first occurs."""
+    at = np.flatnonzero(np.r_[True, sorted_values[1:] != sorted_values[:-1]]) if len(sorted_values) \
+        else np.zeros(0, dtype=np.int64)
+    return sorted_values[at], at
 
 
 def _select(rows: list[int], pr: _Pairs, prio_of: np.ndarray, arr: MemberArrays, chained, tol: Tolerances,
@@ -620,202 +714,340 @@ def _role_name(code: int) -> str:
 # --------------------------------------------------------------------------------------------------
 # joints, geometry, classification
 
-_KIND_OF = {_COL_CAP: "unknown", _BEAM_WEB: "beam-web", _BEAM_OVER: "beam-over", _SPLICE: "splice",
-            _END_MEET: "beam-web", _LANDS: "unknown"}
+# joint kinds by candidate code (column faces: flange or web from the pair), as codes into _KIND_NAMES
+_KIND_NAMES = (None, "column-flange", "column-web", "unknown", "beam-web", "beam-over", "splice")
+_K_NONE, _K_FLANGE, _K_WEB, _K_UNKNOWN, _K_BEAM_WEB, _K_OVER, _K_SPLICE = range(7)
+_KIND_CODE = np.array([_K_NONE, _K_FLANGE, _K_UNKNOWN, _K_BEAM_WEB, _K_OVER, _K_SPLICE, _K_BEAM_WEB,
+                       _K_UNKNOWN, _K_NONE], dtype=np.int64)   # indexed by candidate code
+_CONT_CODES = (_COL_FACE, _BEAM_WEB, _END_MEET, _BEAM_OVER)
 
 
 def _fmt(x: float) -> str:
     return f"{x:.0f}"
 
 
-def _build_joints(arr: MemberArrays, members: list[Member], bearings: list[Bearing], em: np.ndarray,
-                  ek: np.ndarray, pts: np.ndarray, pr: _Pairs, choices: dict[int, _Choice],
-                  cont: dict[tuple[int, int], set[int]], tol: Tolerances, policy: str) -> list[Joint]:
-    sel = sorted(c for c in choices if choices[c].row is not None)
-    rows = np.array([choices[c].row for c in sel], dtype=np.int64)
-    e_of = np.array(sel, dtype=np.int64)
-    b = em[e_of] if len(sel) else np.zeros(0, np.int64)
-    s = pr.s[rows] if len(sel) else np.zeros(0, np.int64)
-    codes = pr.code[rows] if len(sel) else np.zeros(0, np.int64)
-    gaps = pr.gap[rows] if len(sel) else np.zeros(0)
-    angle = angle_between_deg(arr, b, s) if len(sel) else np.zeros(0)
-    web_rows = np.flatnonzero(np.isin(codes, (_BEAM_WEB, _END_MEET)))
+@dataclass(frozen=True)
+class _JointFacts:
+    """Per-joint facts of the ends with a member support (arrays/lists over those joints, mm)."""
+
+    sel: np.ndarray               # end index of each joint
+    rows: np.ndarray              # candidate row of each joint
+    s: list[int]                  # support member
+    kind: list[str | None]
+    angle: list[float]
+    gap: list[float]
+    tos: list[float]
+    copes: dict[int, tuple[Cope, ...]]
+    cont: list[bool | None]       # support continuous through the joint (None: not assessed)
+    via: list[str | None]
+    h_before: list[float | None]
+    h_after: list[float | None]
+    partner: dict[int, int]       # joint -> back-to-back joint (positions in these lists)
+
+
+def _joint_facts(arr: MemberArrays, em: np.ndarray, ek: np.ndarray, pr: _Pairs, row_of: np.ndarray,
+                 via_of: np.ndarray, choices: dict[int, _Choice], cont: dict[tuple[int, int], set[int]],
+                 tol: Tolerances) -> _JointFacts:
+    """Geometry, continuity and back-to-back partners of every joint on a member, vectorised.
+
+    Continuity (mm): the support extends at least ``continuity_mm`` beyond the beam's section on both
+    sides, or a collinear member continues it on the short side. Back-to-back: same support, same
+    face family, opposite sides, within ``back_to_back_mm`` along the support (nearest first).
+    """
+    sel = np.flatnonzero(row_of >= 0)
+    rows = row_of[sel]
+    b, s = em[sel], pr.s[rows]
+    codes = pr.code[rows]
+    gaps = pr.gap[rows]
+    angle = angle_between_deg(arr, b, s)
+    web_rows = np.flatnonzero((codes == _BEAM_WEB) | (codes == _END_MEET))
     tos = np.full(len(sel), np.nan)
-    copes: dict[int, tuple] = {}
+    copes: dict[int, tuple[Cope, ...]] = {}
     if len(web_rows):
-        tw, cw = copes_for_web_joints(arr, b[web_rows], ek[e_of[web_rows]], s[web_rows],
+        tw, cw = copes_for_web_joints(arr, b[web_rows], ek[sel[web_rows]], s[web_rows],
                                       gaps[web_rows], tol)
         tos[web_rows] = tw
-        copes = {int(i): c for i, c in zip(web_rows, cw)}
+        copes = {i: c for i, c in zip(web_rows.tolist(), cw) if c}
     over_rows = np.flatnonzero(codes == _BEAM_OVER)
     if len(over_rows):
-        ec = arr.end_point(b[over_rows], ek[e_of[over_rows]])
-        top_b, _ = tops_and_bottoms(arr, b[over_rows], ec)
-        t = np.einsum("ij,ij->i", ec - arr.c0[s[over_rows]], arr.a[s[over_rows]])
-        foot = arr.c0[s[over_rows]] + t[:, None] * arr.a[s[over_rows]]
-        top_s, _ = tops_and_bottoms(arr, s[over_rows], foot)
+        bo, so = b[over_rows], s[over_rows]
+        ec = arr.end_point(bo, ek[sel[over_rows]])
+        top_b, _ = tops_and_bottoms(arr, bo, ec)
+        t = np.einsum("ij,ij->i", ec - arr.c0[so], arr.a[so])
+        foot = arr.c0[so] + t[:, None] * arr.a[so]
+        top_s, _ = tops_and_bottoms(arr, so, foot)
         tos[over_rows] = top_b - top_s
 
-    # continuity (vectorised facts, assembled per joint below)
-    L = arr.length[s] if len(sel) else np.zeros(0)
-    t = pr.t[rows] if len(sel) else np.zeros(0)
-    ext_a = np.maximum(pr.hi[rows] - pr.lo[rows], 0.0) / 2.0 if len(sel) else np.zeros(0)
-    is_col = (codes == _COL_FACE)
-    pos = np.where(is_col, (pr.lo[rows] + pr.hi[rows]) / 2.0 if len(sel) else 0.0, t)
-    room_before = pos - ext_a
-    room_after = L - pos - ext_a
+    # continuity along the support: room either side of the beam's section, else a continuation
+    L = arr.length[s]
+    lo, hi = pr.lo[rows], pr.hi[rows]
+    ext_a = np.maximum(hi - lo, 0.0) / 2.0
+    is_col = codes == _COL_FACE
+    pos = np.where(is_col, (lo + hi) / 2.0, pr.t[rows])
+    cont_kind = np.isin(codes, _CONT_CODES)
+    k_before = np.where(~is_col | (arr.a[s, 2] >= 0.0), 0, 1)   # t = 0 side, or column bottom
+    room_b = pos - ext_a >= tol.continuity_mm
+    room_a = L - pos - ext_a >= tol.continuity_mm
+    need_b, need_a = cont_kind & ~room_b, cont_kind & ~room_a
+    nb = _first_continuation(cont, arr.ids, s, k_before, need_b)
+    na = _first_continuation(cont, arr.ids, s, 1 - k_before, need_a)
+    use_b = need_b & (nb >= 0)
+    use_a = need_a & (na >= 0)
+    before_ok = room_b | use_b
+    after_ok = room_a | use_a
+    h_before = np.where(use_b, pos + arr.length[nb], pos)
+    h_after = np.where(use_a, (L - pos) + arr.length[na], L - pos)
 
     ids = arr.ids
-    gidx = {g: n for n, g in enumerate(ids)}
-    # plain lists for the per-joint assembly (numpy scalar indexing is slow in loops)
-    codes_l, s_l, b_l = codes.tolist(), s.tolist(), b.tolist()
-    is_col_l, pos_l, L_l = is_col.tolist(), pos.tolist(), L.tolist()
-    rb_l, ra_l = room_before.tolist(), room_after.tolist()
-    flange_l = pr.flange[rows].tolist() if len(sel) else []
-    side_l = pr.side[rows].tolist() if len(sel) else []
-    role_l, az_l, length_l = arr.role.tolist(), arr.a[:, 2].tolist(), arr.length.tolist()
-    gaps_l, angle_l, tos_l = gaps.tolist(), angle.tolist(), tos.tolist()
-    rows_l = rows.tolist()
-    inferred_l = pr.inferred[rows].tolist() if len(sel) else []
-    is_i_l = arr.is_i.tolist()
-    loc_all = arr.end_point(em, ek, centroid=False).tolist()
-    info: dict[int, dict[str, Any]] = {}
-    for i, e_idx in enumerate(sel):
-        ch = choices[e_idx]
-        code = codes_l[i]
-        si, bi = s_l[i], b_l[i]
-        d: dict[str, Any] = {"i": i, "code": code, "support": ids[si]}
-        kind = _KIND_OF.get(code)
-        if code == _COL_FACE:
-            kind = "column-flange" if flange_l[i] else "column-web"
-        if role_l[bi] == _BRACE:
-            kind = "unknown"
-        d["kind"] = kind
-        # continuity along the support
-        cont_flag: bool | None = None
-        h_before = h_after = None
-        via = ch.via
-        if code in (_COL_FACE, _BEAM_WEB, _END_MEET, _BEAM_OVER):
-            # which member end is "before" (t=0 side, or column bottom)
-            k_before = 0 if (not is_col_l[i] or az_l[si] >= 0.0) else 1
-            k_after = 1 - k_before
-            before_ok = rb_l[i] >= tol.continuity_mm
-            after_ok = ra_l[i] >= tol.continuity_mm
-            h_before, h_after = pos_l[i], L_l[i] - pos_l[i]
-            nb = sorted(cont.get((si, k_before), ()), key=lambda x: ids[x])
-            na = sorted(cont.get((si, k_after), ()), key=lambda x: ids[x])
-            if not before_ok and nb:
-                before_ok, via = True, via or ids[nb[0]]
-                h_before += length_l[nb[0]]
-            if not after_ok and na:
-                after_ok, via = True, via or ids[na[0]]
-                h_after += length_l[na[0]]
-            if ch.via:
-                before_ok = after_ok = True
-            cont_flag = bool(before_ok and after_ok)
-        d.update(cont=cont_flag, via=via, h_before=h_before, h_after=h_after)
-        info[e_idx] = d
+    via: list[str | None] = [None] * len(sel)
+    ch_via = np.zeros(len(sel), dtype=bool)
+    via_sel = via_of[sel]
+    for i in np.flatnonzero(via_sel >= 0).tolist():
+        if ids[int(via_sel[i])]:
+            via[i] = ids[int(via_sel[i])]
+            ch_via[i] = True
+    if choices:
+        at = np.full(len(row_of), -1, dtype=np.int64)
+        at[sel] = np.arange(len(sel))
+        for e_idx, ch in choices.items():
+            if ch.via and at[e_idx] >= 0:
+                i = int(at[e_idx])
+                via[i] = ch.via
+                ch_via[i] = True
+    for i in np.flatnonzero(cont_kind & (use_b | use_a | ch_via)).tolist():
+        v = via[i]
+        if use_b[i]:
+            v = v or ids[int(nb[i])]
+        if use_a[i]:
+            v = v or ids[int(na[i])]
+        via[i] = v
+    cont_flag = np.where(ch_via, True, before_ok & after_ok)
+    cont_kind_l = cont_kind.tolist()
+    cont_l = [c if k else None for c, k in zip(cont_flag.tolist(), cont_kind_l)]
+    via = [v if k else None for v, k in zip(via, cont_kind_l)]
+    hb_l = [h if k else None for h, k in zip(h_before.tolist(), cont_kind_l)]
+    ha_l = [h if k else None for h, k in zip(h_after.tolist(), cont_kind_l)]
 
-    # back-to-back partners: same support, same face family, opposite sides, close along the support
-    by_support: dict[tuple[int, str], list[int]] = defaultdict(list)
-    for e_idx, d in info.items():
-        if d["kind"] in ("column-flange", "column-web", "beam-web"):
-            by_support[(s_l[d["i"]], d["kind"])].append(e_idx)
+    kind_code = np.where(is_col, np.where(pr.flange[rows], _K_FLANGE, _K_WEB), _KIND_CODE[codes])
+    kind_code[arr.role[b] == _BRACE] = _K_UNKNOWN
+    partner = _back_to_back(kind_code, s, pos, pr.side[rows], tol)
+    return _JointFacts(sel, rows, s.tolist(), [_KIND_NAMES[k] for k in kind_code.tolist()],
+                       angle.tolist(), gaps.tolist(), tos.tolist(), copes, cont_l, via, hb_l, ha_l,
+                       partner)
+
+
+def _first_continuation(cont: dict[tuple[int, int], set[int]], ids: Sequence[str], m: np.ndarray,
+                        k: np.ndarray, need: np.ndarray) -> np.ndarray:
+    """For each (member ``m``, end ``k``) where ``need``: the member continuing collinear from that
+    end, the first by GlobalId; -1 where there is none or it is not needed."""
+    out = np.full(len(m), -1, dtype=np.int64)
+    at = np.flatnonzero(need)
+    if not len(at) or not cont:
+        return out
+    seen: dict[tuple[int, int], int] = {}
+    found = []
+    for key in zip(m[at].tolist(), k[at].tolist()):
+        v = seen.get(key)
+        if v is None:
+            nbrs = cont.get(key)
+            v = seen[key] = min(nbrs, key=ids.__getitem__) if nbrs else -1
+        found.append(v)
+    out[at] = found
+    return out
+
+
+def _back_to_back(kind_code: np.ndarray, s: np.ndarray, pos: np.ndarray, side: np.ndarray,
+                  tol: Tolerances) -> dict[int, int]:
+    """Back-to-back pairs among joints (positions in the arrays): same support ``s``, same face
+    family, ``side`` of opposite sign, ``pos`` (mm along the support) within ``back_to_back_mm``.
+
+    Per (support, family), in order along the support, each joint not yet paired takes the nearest
+    unpaired joint on the other side (the first such on a tie).
+    """
+    idx = np.flatnonzero(np.isin(kind_code, (_K_FLANGE, _K_WEB, _K_BEAM_WEB)))
     partner: dict[int, int] = {}
-    for (_, _), lst in by_support.items():
-        if len(lst) < 2:
-            continue
-        lst.sort(key=lambda x: pos_l[info[x]["i"]])
+    if len(idx) < 2:
+        return partner
+    idx = idx[np.lexsort((idx, pos[idx], kind_code[idx], s[idx]))]
+    grp = s[idx] * 8 + kind_code[idx]
+    cut = np.flatnonzero(grp[1:] != grp[:-1]) + 1
+    starts = np.r_[0, cut]
+    stops = np.r_[cut, len(idx)]
+    size = stops - starts
+    lim = tol.back_to_back_mm
+    # two joints on a support (the usual case): a pair when on opposite sides and close enough
+    two = starts[size == 2]
+    x, y = idx[two], idx[two + 1]
+    pair = (side[x] * side[y] < 0) & (np.abs(pos[x] - pos[y]) <= lim)
+    for u, v in zip(x[pair].tolist(), y[pair].tolist()):
+        partner[u], partner[v] = v, u
+    big = np.flatnonzero(size > 2)
+    if not len(big):
+        return partner
+    idx_l, pos_l, side_l = idx.tolist(), pos.tolist(), side.tolist()
+    for a0, a1 in zip(starts[big].tolist(), stops[big].tolist()):
+        lst = idx_l[a0:a1]
         for x in lst:
             if x in partner:
                 continue
-            ix = info[x]["i"]
             best, best_d = None, None
+            px, sx = pos_l[x], side_l[x]
             for y in lst:
-                if y == x or y in partner:
+                if y == x or y in partner or sx * side_l[y] >= 0:
                     continue
-                iy = info[y]["i"]
-                if side_l[ix] * side_l[iy] >= 0:
-                    continue
-                dd = abs(pos_l[ix] - pos_l[iy])
-                if dd <= tol.back_to_back_mm and (best_d is None or dd < best_d):
+                dd = abs(px - pos_l[y])
+                if dd <= lim and (best_d is None or dd < best_d):
                     best, best_d = y, dd
             if best is not None:
                 partner[x], partner[best] = best, x
+    return partner
 
-    joints: list[Joint] = []
-    for e_idx in sorted(choices):
-        ch = choices[e_idx]
+
+def _partner_facts(arr: MemberArrays, members: list[Member], em: np.ndarray, f: _JointFacts,
+                   b_l: list[int], labels: list[str], tol: Tolerances
+                   ) -> tuple[list[str | None], list[float | None], list[bool | None]]:
+    """Per joint: the back-to-back beam's label, the span ratio (longer / shorter) and whether the
+    two are similar (span and depth within ``balance_ratio``); ``None`` without a partner."""
+    n = len(f.sel)
+    p_label: list[str | None] = [None] * n
+    p_ratio: list[float | None] = [None] * n
+    p_similar: list[bool | None] = [None] * n
+    if not f.partner:
+        return p_label, p_ratio, p_similar
+    # valid axes only here: lengths finite and > 0
+    me = np.fromiter(f.partner.keys(), dtype=np.int64, count=len(f.partner))
+    other = np.fromiter(f.partner.values(), dtype=np.int64, count=len(f.partner))
+    la, lb = arr.length[em[f.sel[me]]], arr.length[em[f.sel[other]]]
+    spans = (np.maximum(la, lb) / np.minimum(la, lb)).tolist()
+    depth_l = [m.section.depth for m in members]
+    dr_of: dict[tuple[float | None, float | None], float] = {}
+    br = tol.balance_ratio
+    for i, pi, ratio in zip(me.tolist(), other.tolist(), spans):
+        bp = b_l[pi]
+        p_label[i] = labels[bp]
+        p_ratio[i] = ratio
+        d1, d2 = depth_l[b_l[i]], depth_l[bp]
+        dr = dr_of.get((d1, d2))
+        if dr is None:
+            dr = dr_of[(d1, d2)] = _ratio(d1, d2) if d1 and d2 else 1.0
+        p_similar[i] = ratio <= br and dr <= br
+    return p_label, p_ratio, p_similar
+
+
+def _build_joints(arr: MemberArrays, members: list[Member], bearings: list[Bearing], em: np.ndarray,
+                  ek: np.ndarray, pr: _Pairs, row_of: np.ndarray, via_of: np.ndarray,
+                  choices: dict[int, _Choice],
+                  cont: dict[tuple[int, int], set[int]], tol: Tolerances, policy: str
+                  ) -> tuple[list[Joint], np.ndarray]:
+    """The joints of every chosen end, in end order, and the end index of each."""
+    f = _joint_facts(arr, em, ek, pr, row_of, via_of, choices, cont, tol)
+    ids = arr.ids
+    n = len(f.sel)
+    b_l = em[f.sel].tolist()
+    k_l = ek[f.sel].tolist()
+    s_l = f.s
+    labels = [m.label for m in members]
+    length_l = arr.length.tolist()
+    jid = [joint_id(ids[bi], _ENDS[k], ids[si]) for bi, k, si in zip(b_l, k_l, s_l)]
+
+    p_label, p_ratio, p_similar = _partner_facts(arr, members, em, f, b_l, labels, tol)
+
+    # stiff / flexible, all joints at once
+    unknown = [k == "unknown" for k in f.kind]
+    sup_label = [labels[si] for si in s_l]
+    beam_sec = [members[bi].section for bi in b_l]
+    sup_sec = [members[si].section for si in s_l]
+    beam_len = [length_l[bi] for bi in b_l]
+    inferred_l = pr.inferred[f.rows].tolist()
+    is_i_l = arr.is_i.tolist()
+    ratios = relative_stiffness_batch(f.kind, beam_sec, sup_sec, beam_len, f.h_before, f.h_after)
+    verdicts = classify_batch(
+        f.kind, sup_label, [None if u else c for u, c in zip(unknown, f.cont)],
+        [None if u else p for u, p in zip(unknown, p_label)],
+        [None if u else p for u, p in zip(unknown, p_similar)],
+        [None if u else p for u, p in zip(unknown, p_ratio)],
+        [True if u else not inf for u, inf in zip(unknown, inferred_l)],
+        [True if u else is_i_l[si] for u, si in zip(unknown, s_l)], ratios, policy)
+
+    # reasons: what the end meets, then the model's relation and notes, continuity, partner, copes
+    rows = f.rows
+    role_l = arr.role.tolist()
+    reasons_all = _kind_reasons_all(
+        pr.code[rows].tolist(), f.kind, pr.flange[rows].tolist(), inferred_l, pr.node[rows].tolist(),
+        pr.at_tips[rows].tolist(), pr.sd[rows].tolist(), [role_l[bi] == _BRACE for bi in b_l], f.gap,
+        f.angle, sup_label, [members[si].role for si in s_l], tol)
+    for i, kind in enumerate(f.kind):
+        if kind == "column-web":
+            reasons_all[i] += _web_clearance(members[b_l[i]], members[s_l[i]], is_i_l[s_l[i]])
+    e_l = f.sel.tolist()
+    source = ["geometry"] * n
+    if choices:
+        at = {e: i for i, e in enumerate(e_l)}
+        for e_idx, ch in choices.items():
+            i = at.get(e_idx)
+            if i is None:
+                continue
+            source[i] = ch.source
+            if ch.source != "geometry":
+                reasons_all[i].insert(0, f"from the model's {ch.source}")
+            reasons_all[i] += ch.notes
+    via_at = [i for i, (v, c) in enumerate(zip(f.via, f.cont)) if v and c]
+    if via_at:
+        gidx = {g: m for m, g in enumerate(ids)}
+        for i in via_at:
+            reasons_all[i].append(f"{sup_label[i]} continues through the joint as "
+                                  f"{labels[gidx[f.via[i]]]}")
+    partner_id: list[str | None] = [None] * n
+    for i, pi in f.partner.items():
+        partner_id[i] = jid[pi]
+        reasons_all[i].append(f"back-to-back with {p_label[i]} on the other side (joint {jid[pi]}, "
+                              f"span ratio {p_ratio[i]:.2f})")
+    copes: list[tuple[Cope, ...]] = [()] * n
+    for i, cp in f.copes.items():
+        copes[i] = cp
+        for c in cp:
+            reasons_all[i].append(f"{c.where} cope {c.depth:.0f} deep × {c.length:.0f} long required "
+                                  f"to clear the flange of {sup_label[i]}")
+
+    loc_all = arr.end_point(em, ek, centroid=False).tolist()
+    joints = [Joint(j, ids[bi], _ENDS[k], ids[si], kind,
+                    JointGeometry(tuple(loc_all[e]), angle, gap, None if tos != tos else tos, cp, cont,
+                                  pid),
+                    st, tuple(rsn) + rs, src)
+              for j, e, bi, k, si, kind, angle, gap, tos, cp, cont, pid, (st, rs), rsn, src
+              in zip(jid, e_l, b_l, k_l, s_l, f.kind, f.angle, f.gap, f.tos, copes, f.cont, partner_id,
+                     verdicts, reasons_all, source)]
+    if all(ch.row is not None for ch in choices.values()):
+        return joints, f.sel
+    joint_at = dict(zip(e_l, joints))
+    free: tuple[str, tuple[str, ...]] | None = None
+    for e_idx, ch in choices.items():
+        if ch.row is not None:
+            continue
         m = int(em[e_idx])
         gid, endname = ids[m], _ENDS[int(ek[e_idx])]
         loc = tuple(loc_all[e_idx])
-        member = members[m]
-        if ch.row is None and ch.wall is None:  # free end
-            v_st, v_rs = apply_policy(classify(SupportFacts(kind="free-end")), policy)
-            joints.append(Joint(joint_id(gid, endname, None), gid, endname, None, "free-end",
-                                JointGeometry(location=loc), v_st, tuple(ch.notes) + v_rs, "geometry"))
+        if ch.wall is None:  # free end
+            if free is None:
+                free = apply_policy(classify(SupportFacts(kind="free-end")), policy)
+            joint_at[e_idx] = Joint(joint_id(gid, endname, None), gid, endname, None, "free-end",
+                                    JointGeometry(location=loc), free[0], tuple(ch.notes) + free[1],
+                                    "geometry")
             continue
-        if ch.wall is not None:
-            bb = bearings[ch.wall]
-            label = bb.name or bb.global_id
-            what = {"bears on top of": f"bearing length {_fmt(-ch.wall_gap)} mm",
-                    "is embedded in": f"embedded {_fmt(-ch.wall_gap)} mm"}.get(
-                ch.wall_mode, f"gap {_fmt(ch.wall_gap)} mm")
-            reasons = [f"{ch.wall_mode} {bb.ifc_class} {label} ({what})"]
-            if ch.source != "geometry":
-                reasons.append(f"from the model's {ch.source}")
-            st, rs = apply_policy(classify(SupportFacts(kind="wall", support_label=label)), policy)
-            joints.append(Joint(joint_id(gid, endname, bb.global_id), gid, endname, bb.global_id,
-                                "wall", JointGeometry(location=loc, gap=float(ch.wall_gap)), st,
-                                tuple(reasons) + rs, ch.source))
-            continue
-        d = info[e_idx]
-        i = d["i"]
-        r = rows_l[i]
-        si = s_l[i]
-        sup = members[si]
-        kind = d["kind"]
-        code = d["code"]
-        jid = joint_id(gid, endname, sup.global_id)
-        gap = gaps_l[i]
-        reasons = _kind_reasons(arr, pr, r, code, kind, m, si, member, sup, gap, angle_l[i], tol)
+        bb = bearings[ch.wall]
+        label = bb.name or bb.global_id
+        what = {"bears on top of": f"bearing length {_fmt(-ch.wall_gap)} mm",
+                "is embedded in": f"embedded {_fmt(-ch.wall_gap)} mm"}.get(
+            ch.wall_mode, f"gap {_fmt(ch.wall_gap)} mm")
+        reasons = [f"{ch.wall_mode} {bb.ifc_class} {label} ({what})"]
         if ch.source != "geometry":
-            reasons.insert(0, f"from the model's {ch.source}")
-        reasons += ch.notes
-        if d["via"] and d["cont"]:
-            reasons.append(f"{sup.label} continues through the joint as {members[gidx[d['via']]].label}")
-        partner_id = partner_label = None
-        similar = ratio = None
-        if e_idx in partner:
-            pe = partner[e_idx]
-            pm_ = members[int(em[pe])]
-            partner_id = joint_id(pm_.global_id, _ENDS[int(ek[pe])], sup.global_id)
-            partner_label = pm_.label
-            ratio = _ratio(length_l[m], length_l[int(em[pe])])
-            dr = _ratio(member.section.depth, pm_.section.depth) if member.section.depth and \
-                pm_.section.depth else 1.0
-            similar = ratio <= tol.balance_ratio and dr <= tol.balance_ratio
-            reasons.append(f"back-to-back with {pm_.label} on the other side (joint {partner_id}, span "
-                           f"ratio {ratio:.2f})")
-        cp = copes.get(i, ())
-        for c in cp:
-            reasons.append(f"{c.where} cope {c.depth:.0f} deep × {c.length:.0f} long required to clear "
-                           f"the flange of {sup.label}")
-        tos_v = None if math.isnan(tos_l[i]) else tos_l[i]
-        geom = JointGeometry(location=loc, angle_deg=angle_l[i], gap=gap, tos_diff=tos_v,
-                             copes=tuple(cp), support_continuous=d["cont"], back_to_back=partner_id)
-        facts = SupportFacts(kind=kind, support_label=sup.label, continuous=d["cont"],
-                             partner_label=partner_label, partner_similar=similar, span_ratio=ratio,
-                             beam_section=member.section, support_section=sup.section,
-                             beam_length=length_l[m], h_before=d["h_before"], h_after=d["h_after"],
-                             orientation_known=not inferred_l[i],
-                             support_is_i=is_i_l[si])
-        if kind == "unknown":
-            facts = SupportFacts(kind="unknown", support_label=sup.label)
-        st, rs = apply_policy(classify(facts), policy)
-        joints.append(Joint(jid, gid, endname, sup.global_id, kind, geom, st, tuple(reasons) + rs,
-                            ch.source))
-    return joints
+            reasons.append(f"from the model's {ch.source}")
+        st, rs = apply_policy(classify(SupportFacts(kind="wall", support_label=label)), policy)
+        joint_at[e_idx] = Joint(joint_id(gid, endname, bb.global_id), gid, endname, bb.global_id,
+                                "wall", JointGeometry(location=loc, gap=float(ch.wall_gap)), st,
+                                tuple(reasons) + rs, ch.source)
+    order = sorted(joint_at)
+    return [joint_at[e] for e in order], np.array(order, dtype=np.int64)
 
 
 def _ratio(a: float | None, b: float | None) -> float:
@@ -824,53 +1056,73 @@ def _ratio(a: float | None, b: float | None) -> float:
     return max(a, b) / min(a, b)
 
 
-def _kind_reasons(arr: MemberArrays, pr: _Pairs, r: int, code: int, kind: str, bi: int, si: int,
-                  beam: Member, sup: Member, gap: float, angle: float, tol: Tolerances) -> list[str]:
-    out: list[str] = []
-    node = bool(pr.node[r])
-    if code == _COL_FACE:
-        face = "flange" if kind == "column-flange" or pr.flange[r] else "web"
-        how = ("arrives along the column's web direction" if face == "flange" else
-               "arrives square to the column's web")
-        if pr.inferred[r]:
-            how = "column orientation not in the model; face inferred from the end's distance"
-        out.append(f"frames into the {face} of column {sup.label} ({how})")
-    elif code in (_BEAM_WEB, _END_MEET):
-        out.append(f"frames into the web of girder {sup.label}")
-    elif code == _BEAM_OVER:
-        out.append(f"bears on the top flange of {sup.label} (underside {gap:+.0f} mm from its top)")
-    elif code == _SPLICE:
-        out.append(f"collinear with {sup.label}, end to end (gap {gap:.0f} mm): the member continues "
-                   "(splice, or a member split at a node)")
-    elif code == _COL_CAP:
-        out.append(f"bears on the cap of column {sup.label} (top of column): cap-plate joint, not a "
-                   "fin plate — type not checked")
-    elif code == _LANDS:
-        out.append(f"lands on {sup.label} (role {sup.role})")
-    if arr.role[bi] == _BRACE:
-        out.append("brace end: gusset connection, not a fin-plate joint — recognised, type not checked")
-    if code in (_COL_FACE, _BEAM_WEB, _END_MEET):
-        if node:
-            out.append("axes meet (node-to-node model)")
-        elif pr.at_tips[r]:
-            out.append(f"end {gap:.0f} mm from the web face, stopping at the flange tips of "
-                       f"{sup.label}: an extended (long) fin plate or a cope and longer beam is needed")
-        elif pr.sd[r] < -tol.node_tol_mm:
-            out.append(f"end runs {-pr.sd[r]:.0f} mm past the axis of {sup.label} (the beam overruns "
-                       "its support: check the model)")
-        elif gap < -tol.clash_tol_mm:
-            out.append(f"end runs {-gap:.0f} mm into the support face (clash in the model?)")
-        else:
-            out.append(f"end {gap:.0f} mm short of the support face (detailed model)")
-        skew = abs(90.0 - angle)
-        if skew > tol.angle_tol_deg:
-            out.append(f"skewed: {skew:.0f}° off square to the support")
-    if kind == "column-web" and sup.section.depth and beam.section.width and arr.is_i[si]:
+def _kind_reasons_all(code: list[int], kind: list[str | None], flange: list[bool], inferred: list[bool],
+                      node: list[bool], at_tips: list[bool], sd: list[float], brace: list[bool],
+                      gap: list[float], angle: list[float], sup: list[str], sup_role: list[str],
+                      tol: Tolerances) -> list[list[str]]:
+    """Per joint (lists of equal length), the reasons saying what the end meets and how: gaps and
+    the signed distance ``sd`` from the support's axis in mm, angles in degrees; ``sup`` the
+    support's label, ``sup_role`` its role."""
+    out: list[list[str]] = []
+    node_tol, clash_tol, angle_tol = tol.node_tol_mm, tol.clash_tol_mm, tol.angle_tol_deg
+    short: dict[float, str] = {}    # the most common text, formatted once per distinct gap
+    for c, k, fl, inf, nd, tips, d, br, g, ang, sp, role in zip(code, kind, flange, inferred, node,
+                                                               at_tips, sd, brace, gap, angle, sup,
+                                                               sup_role):
+        r: list[str] = []
+        if c == _COL_FACE:
+            face = "flange" if k == "column-flange" or fl else "web"
+            how = ("arrives along the column's web direction" if face == "flange" else
+                   "arrives square to the column's web")
+            if inf:
+                how = "column orientation not in the model; face inferred from the end's distance"
+            r.append(f"frames into the {face} of column {sp} ({how})")
+        elif c == _BEAM_WEB or c == _END_MEET:
+            r.append(f"frames into the web of girder {sp}")
+        elif c == _BEAM_OVER:
+            r.append(f"bears on the top flange of {sp} (underside {g:+.0f} mm from its top)")
+        elif c == _SPLICE:
+            r.append(f"collinear with {sp}, end to end (gap {g:.0f} mm): the member continues "
+                     "(splice, or a member split at a node)")
+        elif c == _COL_CAP:
+            r.append(f"bears on the cap of column {sp} (top of column): cap-plate joint, not a "
+                     "fin plate — type not checked")
+        elif c == _LANDS:
+            r.append(f"lands on {sp} (role {role})")
+        if br:
+            r.append("brace end: gusset connection, not a fin-plate joint — recognised, type not checked")
+        if c == _COL_FACE or c == _BEAM_WEB or c == _END_MEET:
+            if nd:
+                r.append("axes meet (node-to-node model)")
+            elif tips:
+                r.append(f"end {g:.0f} mm from the web face, stopping at the flange tips of "
+                         f"{sp}: an extended (long) fin plate or a cope and longer beam is needed")
+            elif d < -node_tol:
+                r.append(f"end runs {-d:.0f} mm past the axis of {sp} (the beam overruns "
+                         "its support: check the model)")
+            elif g < -clash_tol:
+                r.append(f"end runs {-g:.0f} mm into the support face (clash in the model?)")
+            else:
+                text = short.get(g) if g != 0.0 else None   # (0.0 and -0.0 print differently)
+                if text is None:
+                    text = short[g] = f"end {g:.0f} mm short of the support face (detailed model)"
+                r.append(text)
+            skew = abs(90.0 - ang)
+            if skew > angle_tol:
+                r.append(f"skewed: {skew:.0f}° off square to the support")
+        out.append(r)
+    return out
+
+
+def _web_clearance(beam: Member, sup: Member, sup_is_i: bool) -> list[str]:
+    """A column-web joint whose beam flange is wider than the clear depth between the column's
+    flanges (mm): the flanges must be cut back."""
+    if sup.section.depth and beam.section.width and sup_is_i:
         clear = sup.section.depth - 2.0 * (sup.section.flange_thickness or 0.0)
         if beam.section.width > clear:
-            out.append(f"beam flange ({beam.section.width:.0f} mm) wider than the clear depth between the "
-                       f"column flanges ({clear:.0f} mm): flanges must be cut back")
-    return out
+            return [f"beam flange ({beam.section.width:.0f} mm) wider than the clear depth between the "
+                    f"column flanges ({clear:.0f} mm): flanges must be cut back"]
+    return []
 
 
 # --------------------------------------------------------------------------------------------------

@@ -22,6 +22,7 @@ __all__ = ["SegmentGrid", "points_in_boxes", "point_segment_distance"]
 
 _OFFSETS = np.array([(i, j, k) for i in (-1, 0, 1) for j in (-1, 0, 1) for k in (-1, 0, 1)],
                     dtype=np.int64)
+_STEPS = np.array([-1, 0, 1], dtype=np.int64)
 
 
 def point_segment_distance(p: np.ndarray, a: np.ndarray, b: np.ndarray) -> np.ndarray:
@@ -76,12 +77,12 @@ class SegmentGrid:
         frac = k / np.maximum(n_samples[seg] - 1, 1)
         samples = a[seg] + (b[seg] - a[seg]) * frac[:, None]
         keys = cls._key(np.floor((samples - origin) / cell).astype(np.int64), dims)
-        pair = np.unique(keys * np.int64(len(a)) + seg)
+        pair = _sorted_unique(keys * np.int64(len(a)) + seg)
         keys = pair // np.int64(len(a))
         items = pair % np.int64(len(a))
-        ukeys, first_idx = np.unique(keys, return_index=True)
+        first_idx = np.flatnonzero(np.r_[True, keys[1:] != keys[:-1]])
         starts = np.append(first_idx, len(keys)).astype(np.int64)
-        return cls(cell, origin, dims, ukeys, starts, items, a, b)
+        return cls(cell, origin, dims, keys[first_idx], starts, items, a, b)
 
     @staticmethod
     def _key(ijk: np.ndarray, dims: tuple[int, int, int]) -> np.ndarray:
@@ -91,7 +92,8 @@ class SegmentGrid:
         """Pairs (point index, segment index, distance mm) with distance ≤ ``radius``.
 
         ``radius`` must not exceed the radius the grid was built for. Pairs are sorted by point index,
-        then segment index.
+        then segment index. Points sharing a cell share its 27-cell neighbourhood: the neighbourhood
+        is looked up once per occupied query cell, then handed to each point in it.
         """
         if radius > 0.75 * self.cell + 1e-9:
             raise ValueError(f"query radius {radius} mm exceeds the grid's build radius")
@@ -99,28 +101,64 @@ class SegmentGrid:
         empty = (np.zeros(0, np.int64), np.zeros(0, np.int64), np.zeros(0))
         if len(points) == 0 or len(self.items) == 0:
             return empty
+        dims = np.array(self.dims, dtype=np.int64)
         ijk = np.floor((points - self.origin) / self.cell).astype(np.int64)
-        neigh = (ijk[:, None, :] + _OFFSETS[None, :, :]).reshape(-1, 3)
-        valid = np.all((neigh >= 0) & (neigh < np.array(self.dims)), axis=1)
-        qidx = np.repeat(np.arange(len(points), dtype=np.int64), len(_OFFSETS))[valid]
-        nkeys = self._key(neigh[valid], self.dims)
+        # points more than one cell outside the grid have no cell to look in
+        near = np.flatnonzero(np.all((ijk >= -1) & (ijk <= dims), axis=1))
+        if len(near) == 0:
+            return empty
+        # group the points by cell (a key over the grid grown by one cell each side: no aliasing)
+        g = ijk[near] + 1
+        gkey = (g[:, 0] * (dims[1] + 2) + g[:, 1]) * (dims[2] + 2) + g[:, 2]
+        by_cell = np.argsort(gkey, kind="stable")
+        gk = gkey[by_cell]
+        new = np.r_[True, gk[1:] != gk[:-1]]
+        cell_of = np.empty(len(near), dtype=np.int64)
+        cell_of[by_cell] = np.cumsum(new) - 1
+        cell_ijk = ijk[near][by_cell[new]]
+        # neighbourhood of each occupied query cell → (cell, segment) pairs, each once, sorted
+        # neighbour (i+di, j+dj, k+dk) is inside the grid when each coordinate is; its key is the
+        # cell's key plus the offset's key (the key is linear in i, j, k)
+        inside = [(cell_ijk[:, ax, None] + _STEPS[None, :] >= 0)
+                  & (cell_ijk[:, ax, None] + _STEPS[None, :] < dims[ax]) for ax in range(3)]
+        valid = (inside[0][:, _OFFSETS[:, 0] + 1] & inside[1][:, _OFFSETS[:, 1] + 1]
+                 & inside[2][:, _OFFSETS[:, 2] + 1]).ravel()
+        koff = self._key(_OFFSETS, self.dims)
+        nkeys = (self._key(cell_ijk, self.dims)[:, None] + koff[None, :]).ravel()[valid]
+        cidx = np.repeat(np.arange(len(cell_ijk), dtype=np.int64), len(_OFFSETS))[valid]
         pos = np.searchsorted(self.keys, nkeys)
         pos_c = np.minimum(pos, len(self.keys) - 1)
         hit = self.keys[pos_c] == nkeys
-        qidx, pos_c = qidx[hit], pos_c[hit]
+        cidx, pos_c = cidx[hit], pos_c[hit]
         lo, hi = self.starts[pos_c], self.starts[pos_c + 1]
         counts = hi - lo
         if counts.sum() == 0:
             return empty
-        q_rep = np.repeat(qidx, counts)
-        offs = np.arange(counts.sum(), dtype=np.int64) - np.repeat(np.cumsum(counts) - counts, counts)
-        s_rep = self.items[np.repeat(lo, counts) + offs]
         n_seg = np.int64(len(self.a))
-        pair = np.unique(q_rep * n_seg + s_rep)
-        q, s = pair // n_seg, pair % n_seg
+        c_rep = np.repeat(cidx, counts)
+        s_rep = self.items[np.repeat(lo, counts) + _ramp(counts)]
+        cpair = _sorted_unique(c_rep * n_seg + s_rep)
+        cseg = cpair % n_seg
+        per_cell = np.bincount(cpair // n_seg, minlength=len(cell_ijk))
+        cstart = np.cumsum(per_cell) - per_cell
+        # each point (in index order) takes its cell's segments (in segment order)
+        n_pt = per_cell[cell_of]
+        q = np.repeat(near, n_pt)
+        s = cseg[np.repeat(cstart[cell_of], n_pt) + _ramp(n_pt)]
         d = point_segment_distance(points[q], self.a[s], self.b[s])
         keep = d <= radius
         return q[keep], s[keep], d[keep]
+
+
+def _ramp(counts: np.ndarray) -> np.ndarray:
+    """0, 1, ..., c-1 for each count c, concatenated."""
+    return np.arange(int(counts.sum()), dtype=np.int64) - np.repeat(np.cumsum(counts) - counts, counts)
+
+
+def _sorted_unique(x: np.ndarray) -> np.ndarray:
+    """Sorted distinct values of an integer array (sort, then drop repeats)."""
+    x = np.sort(x)
+    return x[np.r_[True, x[1:] != x[:-1]]] if len(x) else x
 
 
 def points_in_boxes(points: np.ndarray, box_min: np.ndarray, box_max: np.ndarray

@@ -47,11 +47,15 @@ licensed practice take precedence.
 from __future__ import annotations
 
 from dataclasses import dataclass
+from typing import Sequence
+
+import numpy as np
 
 from engine.errors import ConfigError
 from engine.model import Section
 
-__all__ = ["POLICIES", "SupportFacts", "Verdict", "classify", "apply_policy", "relative_stiffness",
+__all__ = ["POLICIES", "SupportFacts", "Verdict", "classify", "classify_batch", "apply_policy",
+           "relative_stiffness", "relative_stiffness_batch",
            "E_STEEL", "G_STEEL", "RIGID_RATIO", "PINNED_RATIO"]
 
 POLICIES = ("conservative", "classified", "envelope")
@@ -128,50 +132,145 @@ def relative_stiffness(f: SupportFacts) -> float | None:
     if f.beam_section is None or f.support_section is None or not f.beam_length:
         return None
     ib = _i_major(f.beam_section)
-    if not ib:
+    return _ratio_of(f.kind, ib, _support_value(f.kind, f.support_section), f.beam_length,
+                     f.h_before, f.h_after)
+
+
+def _support_value(kind: str, s: Section) -> float | None:
+    """The support's section property the ratio uses for ``kind`` (mm⁴): I major (column flange),
+    I minor (column web), J (girder web); ``None`` for other kinds or unknown sections."""
+    if kind == "column-flange":
+        return _i_major(s)
+    if kind == "column-web":
+        return _i_minor(s)
+    if kind == "beam-web":
+        return _torsion_j(s)
+    return None
+
+
+def _ratio_of(kind: str, ib: float | None, sv: float | None, beam_length: float | None,
+              h_before: float | None, h_after: float | None) -> float | None:
+    """The ratio of :func:`relative_stiffness` from the section values (I mm⁴, lengths mm)."""
+    if not ib or not beam_length:
         return None
-    k_beam = E_STEEL * ib / f.beam_length
-    arms = [h for h in (f.h_before, f.h_after) if h and h > 1.0]
+    k_beam = E_STEEL * ib / beam_length
+    arms = [h for h in (h_before, h_after) if h and h > 1.0]
     if not arms:
         return None
-    if f.kind == "column-flange":
-        ic = _i_major(f.support_section)
-        k = None if ic is None else sum(3.0 * E_STEEL * ic / h for h in arms)
-    elif f.kind == "column-web":
-        ic = _i_minor(f.support_section)
-        k = None if ic is None else sum(3.0 * E_STEEL * ic / h for h in arms)
-    elif f.kind == "beam-web":
-        j = _torsion_j(f.support_section)
-        k = None if j is None else sum(G_STEEL * j / h for h in arms)
+    if kind == "column-flange" or kind == "column-web":
+        k = None if sv is None else sum(3.0 * E_STEEL * sv / h for h in arms)
+    elif kind == "beam-web":
+        k = None if sv is None else sum(G_STEEL * sv / h for h in arms)
     else:
         return None
     return None if k is None else k / k_beam
 
 
+def relative_stiffness_batch(kinds: Sequence[str], beam_sections: Sequence[Section | None],
+                             support_sections: Sequence[Section | None],
+                             beam_lengths: Sequence[float | None], h_before: Sequence[float | None],
+                             h_after: Sequence[float | None]) -> list[float | None]:
+    """:func:`relative_stiffness` for many joints at once (sequences of equal length; lengths mm).
+
+    Same method and the same floating-point operations in the same order, vectorised with numpy over
+    the joints; the section properties (I, J) are worked out once per distinct section object.
+    """
+    n = len(kinds)
+    if n == 0:
+        return []
+    ib_of: dict[int, float | None] = {}
+    sv_of: dict[tuple[str, int], float | None] = {}
+    ib_l: list[float | None] = []
+    sv_l: list[float | None] = []
+    for kind, bs, ss in zip(kinds, beam_sections, support_sections):
+        if kind not in _RATIO_KINDS or bs is None or ss is None:
+            ib_l.append(None)
+            sv_l.append(None)
+            continue
+        key_b = id(bs)
+        ib_l.append(ib_of[key_b] if key_b in ib_of else ib_of.setdefault(key_b, _i_major(bs)))
+        key_s = (kind, id(ss))
+        sv_l.append(sv_of[key_s] if key_s in sv_of else sv_of.setdefault(key_s, _support_value(kind, ss)))
+    ok = np.array([bool(ib) and sv is not None and bool(bl) for ib, sv, bl in
+                   zip(ib_l, sv_l, beam_lengths)], dtype=bool)
+    ib = _floats(ib_l)
+    sv = _floats(sv_l)
+    bl = _floats(beam_lengths)
+    hb, ha = _floats(h_before), _floats(h_after)
+    use_b, use_a = hb > 1.0, ha > 1.0          # NaN (unknown) compares False
+    kinds_a = np.array(kinds, dtype=object)
+    col = (kinds_a == "column-flange") | (kinds_a == "column-web")
+    factor = np.where(col, 3.0 * E_STEEL, G_STEEL)   # 3 E I / h per column length, G J / h per arm
+    with np.errstate(divide="ignore", invalid="ignore"):
+        t_b = factor * sv / hb
+        t_a = factor * sv / ha
+        k = np.where(use_b & use_a, t_b + t_a, np.where(use_b, t_b, t_a))
+        ratio = k / (E_STEEL * ib / bl)
+    ok &= use_b | use_a
+    return [r if o else None for r, o in zip(ratio.tolist(), ok.tolist())]
+
+
+def _floats(values: Sequence[float | None]) -> np.ndarray:
+    """Array of floats, ``None`` as NaN."""
+    return np.array([np.nan if v is None else v for v in values], dtype=float)
+
+
+_RATIO_KINDS = frozenset(("column-flange", "column-web", "beam-web"))
+
+
 def _ratio_text(ratio: float, what: str) -> str:
-    return (f"relative stiffness {what} / (E·I_beam/L_beam) = {ratio:.2g} "
-            f"(stiff ≥ {RIGID_RATIO:g}, flexible ≤ {PINNED_RATIO:g})")
+    return f"relative stiffness {what} / (E·I_beam/L_beam) = {ratio:.2g} {_BOUNDS_TEXT}"
+
+
+_BOUNDS_TEXT = f"(stiff ≥ {RIGID_RATIO:g}, flexible ≤ {PINNED_RATIO:g})"
 
 
 def classify(f: SupportFacts) -> Verdict:
     """Classify one joint's support (before the policy); see the module docstring for the method."""
+    level, reasons = _verdict(f.kind, f.support_label, f.continuous, f.partner_label,
+                              f.partner_similar, f.span_ratio, f.orientation_known, f.support_is_i,
+                              relative_stiffness(f))
+    return Verdict(level, reasons)
+
+
+def classify_batch(kinds: Sequence[str], support_labels: Sequence[str],
+                   continuous: Sequence[bool | None], partner_labels: Sequence[str | None],
+                   partner_similar: Sequence[bool | None], span_ratios: Sequence[float | None],
+                   orientation_known: Sequence[bool], support_is_i: Sequence[bool],
+                   ratios: Sequence[float | None], policy: str) -> list[tuple[str, tuple[str, ...]]]:
+    """:func:`classify` then :func:`apply_policy` for many joints at once, without building a
+    :class:`SupportFacts` per joint.
+
+    The sequences (equal length) hold the fields of :class:`SupportFacts` joint by joint, and
+    ``ratios`` the :func:`relative_stiffness` of each (see :func:`relative_stiffness_batch`; lengths
+    mm). Same rules as :func:`classify`. Returns (stiffness, reasons) per joint.
+    """
+    if policy not in POLICIES:
+        raise ConfigError(f"[support] policy {policy!r} is not one of {', '.join(POLICIES)}")
+    return [_policy(*_verdict(*row), policy)
+            for row in zip(kinds, support_labels, continuous, partner_labels, partner_similar,
+                           span_ratios, orientation_known, support_is_i, ratios)]
+
+
+def _verdict(k: str, support_label: str, continuous: bool | None, partner_label: str | None,
+             partner_similar: bool | None, span_ratio: float | None, orientation_known: bool,
+             support_is_i: bool, ratio: float | None) -> tuple[str, tuple[str, ...]]:
+    """The rules of :func:`classify` on plain values: (level, reasons)."""
     r: list[str] = []
-    k = f.kind
-    sup = f.support_label or "the support"
-    ratio = relative_stiffness(f)
-    if k == "column-flange" and not f.support_is_i:
+    sup = support_label or "the support"
+    if k == "column-flange" and not support_is_i:
         r.append(f"face of column {sup} (not an I section): the wall of a hollow or solid section "
                  "bends locally; rotational restraint not assessed → not clearly stiff")
-        return Verdict(LEAN_FLEXIBLE, tuple(r))
+        return LEAN_FLEXIBLE, tuple(r)
     if k == "column-flange":
-        if not f.orientation_known:
+        if not orientation_known:
             r.append(f"column {sup}: section orientation not in the model; face inferred from the "
                      "distance → not clearly stiff")
-            return Verdict(LEAN_FLEXIBLE, tuple(r))
-        if f.continuous:
+            return LEAN_FLEXIBLE, tuple(r)
+        if continuous:
             r.append(f"column flange, column {sup} continuous through the joint → stiff")
             level = STIFF
-        elif f.continuous is None:
+        elif continuous is None:
             r.append(f"column flange of {sup}; continuity of the column not known → not clearly stiff")
             level = LEAN_STIFF
         else:
@@ -183,34 +282,34 @@ def classify(f: SupportFacts) -> Verdict:
             if ratio <= PINNED_RATIO:
                 r.append("column slender relative to the beam → not clearly stiff")
                 level = LEAN_FLEXIBLE
-        return Verdict(level, tuple(r))
+        return level, tuple(r)
     if k == "column-web":
-        if not f.orientation_known:
+        if not orientation_known:
             r.append(f"column {sup}: section orientation not in the model; the web is assumed "
                      "(the more flexible face) → not clearly stiff")
-            return Verdict(LEAN_FLEXIBLE, tuple(r))
-        if not f.support_is_i:
+            return LEAN_FLEXIBLE, tuple(r)
+        if not support_is_i:
             r.append(f"face of column {sup} (not an I section): local flexibility not assessed → "
                      "not clearly stiff")
-            return Verdict(LEAN_FLEXIBLE, tuple(r))
-        if f.continuous:
+            return LEAN_FLEXIBLE, tuple(r)
+        if continuous:
             r.append(f"column web between the flanges of column {sup}, column continuous through the "
                      "joint: the web is held by both flanges and the column runs on → stiff "
                      "(common practice)")
             level = STIFF
-            if f.partner_label:
-                r.append(f"back-to-back beam {f.partner_label} on the other side of the web"
-                         + (" (similar span: balanced)" if f.partner_similar else
-                            f" (span ratio {f.span_ratio:.2f}: unbalanced)"))
-        elif f.partner_label and f.partner_similar:
-            r.append(f"column web, balanced by back-to-back beam {f.partner_label}, but column {sup} "
-                     f"{'is not continuous' if f.continuous is False else 'may not be continuous'} "
+            if partner_label:
+                r.append(f"back-to-back beam {partner_label} on the other side of the web"
+                         + (" (similar span: balanced)" if partner_similar else
+                            f" (span ratio {span_ratio:.2f}: unbalanced)"))
+        elif partner_label and partner_similar:
+            r.append(f"column web, balanced by back-to-back beam {partner_label}, but column {sup} "
+                     f"{'is not continuous' if continuous is False else 'may not be continuous'} "
                      "through the joint → not clearly stiff")
             level = LEAN_STIFF
         else:
             r.append(f"column web of {sup}, column "
-                     f"{'not continuous' if f.continuous is False else 'continuity not known'}"
-                     + (", one side only" if not f.partner_label else ", unbalanced back-to-back")
+                     f"{'not continuous' if continuous is False else 'continuity not known'}"
+                     + (", one side only" if not partner_label else ", unbalanced back-to-back")
                      + ": the web bends out of plane under the end rotation → not clearly stiff")
             level = LEAN_FLEXIBLE
         if ratio is not None:
@@ -219,16 +318,16 @@ def classify(f: SupportFacts) -> Verdict:
                 r.append("even without web flexibility the column is slender about its minor axis "
                          "→ not clearly stiff")
                 level = LEAN_FLEXIBLE
-        return Verdict(level, tuple(r))
+        return level, tuple(r)
     if k == "beam-web":
-        if f.partner_label and f.partner_similar:
-            r.append(f"girder web of {sup}, balanced by back-to-back beam {f.partner_label} of similar "
+        if partner_label and partner_similar:
+            r.append(f"girder web of {sup}, balanced by back-to-back beam {partner_label} of similar "
                      "span: girder twist largely cancels under balanced load (pattern loading "
                      "unbalances it) → not clearly stiff, leaning stiff")
             level = LEAN_STIFF
-        elif f.partner_label:
-            r.append(f"girder web of {sup}, back-to-back beam {f.partner_label} of dissimilar span "
-                     f"(ratio {f.span_ratio:.2f}): unbalanced, girder twists → flexible")
+        elif partner_label:
+            r.append(f"girder web of {sup}, back-to-back beam {partner_label} of dissimilar span "
+                     f"(ratio {span_ratio:.2f}): unbalanced, girder twists → flexible")
             level = FLEXIBLE
         else:
             r.append(f"girder web of {sup}, one side only, girder free to twist → flexible")
@@ -240,37 +339,42 @@ def classify(f: SupportFacts) -> Verdict:
                 level = LEAN_STIFF
             elif ratio <= PINNED_RATIO and level == LEAN_STIFF:
                 r.append("girder torsionally flexible relative to the beam")
-        return Verdict(level, tuple(r))
+        return level, tuple(r)
     if k == "beam-over":
         r.append(f"bears on the top flange of {sup}: the end rotates on the bearing (no fin plate) → "
                  "flexible")
-        return Verdict(FLEXIBLE, tuple(r))
+        return FLEXIBLE, tuple(r)
     if k == "wall":
         r.append(f"wall or slab {sup}: a concrete or masonry support does not rotate with the beam end "
                  "→ stiff (check the bearing or embed detail)")
-        return Verdict(STIFF, tuple(r))
+        return STIFF, tuple(r)
     if k == "splice":
         r.append(f"splice with {sup}: the member is made continuous → stiff (not a shear-connection "
                  "hinge)")
-        return Verdict(STIFF, tuple(r))
+        return STIFF, tuple(r)
     if k == "free-end":
         r.append("free end: no support, no connection; stiffness not applicable (recorded as flexible)")
-        return Verdict(FLEXIBLE, tuple(r))
+        return FLEXIBLE, tuple(r)
     r.append(f"joint type not classified (at {sup}) → flexible")
-    return Verdict(FLEXIBLE, tuple(r))
+    return FLEXIBLE, tuple(r)
 
 
 def apply_policy(v: Verdict, policy: str) -> tuple[str, tuple[str, ...]]:
     """Map a verdict to ``"stiff"``/``"flexible"`` under ``policy``; returns (stiffness, reasons)."""
     if policy not in POLICIES:
         raise ConfigError(f"[support] policy {policy!r} is not one of {', '.join(POLICIES)}")
-    if v.level in (STIFF, FLEXIBLE):
-        out, reasons = v.level, v.reasons
+    return _policy(v.level, v.reasons, policy)
+
+
+def _policy(level: str, reasons: tuple[str, ...], policy: str) -> tuple[str, tuple[str, ...]]:
+    """:func:`apply_policy` on plain values (``policy`` already checked)."""
+    if level in (STIFF, FLEXIBLE):
+        out = level
     elif policy == "conservative":
-        return "flexible", v.reasons + ("policy conservative: not clearly stiff → flexible",)
+        return "flexible", reasons + ("policy conservative: not clearly stiff → flexible",)
     else:
-        out = "stiff" if v.level == LEAN_STIFF else "flexible"
-        reasons = v.reasons + (f"policy {policy}: not clearly either, leaning {out} → {out}",)
+        out = "stiff" if level == LEAN_STIFF else "flexible"
+        reasons = reasons + (f"policy {policy}: not clearly either, leaning {out} → {out}",)
     if policy == "envelope":
         reasons = reasons + ("policy envelope: both hinge positions (bolt line and support face) are "
                              "checked downstream",)
