@@ -132,7 +132,7 @@ class Steel:
     source: str = "default"
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Member:
     """A linear structural member read from the model.
 
@@ -258,7 +258,7 @@ class Frame:
     ``(V in N, text naming the reaction and its load combination)``; empty when there is none."""
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Cope:
     """A cope (notch) of the supported beam's flange and web: ``where`` is ``"top"`` or ``"bottom"``;
     ``depth`` and ``length`` in mm."""
@@ -268,7 +268,7 @@ class Cope:
     length: float
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class JointGeometry:
     """Geometry of a joint, mm and degrees.
 
@@ -290,7 +290,7 @@ class JointGeometry:
     back_to_back: str | None = None
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Joint:
     """One end of a supported member and what supports it.
 
@@ -311,7 +311,7 @@ class Joint:
     source: str = "geometry"
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Demand:
     """Design actions at a joint: end shear ``V`` and tie/axial force ``N`` in N.
 
@@ -387,7 +387,7 @@ class FinPlate:
         return self.rows * self.lines
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Check:
     """One design check: ``demand`` and ``capacity`` in ``unit`` (N, N·mm, mm, MPa or "-"),
     ``utilisation`` = demand / capacity (or the check's own ratio for detailing limits).
@@ -407,7 +407,7 @@ class Check:
     incomplete: bool = False
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class JointResult:
     """The outcome for one joint: ``status`` is one of :data:`STATUSES`; ``missing`` lists what data
     was missing when the status is ``"incomplete"``."""

@@ -10,6 +10,7 @@ practice take precedence.
 
 from __future__ import annotations
 
+import functools
 import math
 import re
 from dataclasses import dataclass
@@ -123,6 +124,7 @@ def _grade_number(label: str) -> str | None:
     return m.group(1) if m else None
 
 
+@functools.lru_cache(maxsize=4096)
 def steel_strength(label: str, thickness: float, product: str) -> tuple[float, float, str] | None:
     """``(fy, fu, source)`` in MPa for grade ``label`` at ``thickness`` (mm) of ``product``.
 

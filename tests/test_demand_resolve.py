@@ -11,6 +11,7 @@ Sources of values:
 from __future__ import annotations
 
 import copy
+import dataclasses
 
 import pytest
 
@@ -145,7 +146,7 @@ def test_take_down_without_a_combination_is_reported_missing():
 
 def test_unknown_section_capacity_is_a_reason_not_a_crash():
     members, js = bay()
-    members["L1"] = Member(**{**members["L1"].__dict__, "section": Section("unknown")})
+    members["L1"] = dataclasses.replace(members["L1"], section=Section("unknown"))
     res = resolve_demands_detailed(js, members, cfg(order=["capacity-fraction"]), web_shear_capacity=web_shear)
     j = next(j for j in js if j.beam == "L1")
     assert res.demands[j.id] is None and "web shear capacity unknown" in res.missing[j.id]
