@@ -151,3 +151,11 @@ def test_baseline_marks_after_a_change_to_the_model(demo_run, tmp_path):
     assert passing and all(j["baseline"] is None for j in passing)
     html = (tmp_path / "out" / "issues.html").read_text()
     assert "Resolved since the baseline" in html
+
+
+def test_per_joint_topics_on_request_give_every_issue_its_own_bcf_topic(tmp_path):
+    assert _audit(SAMPLES / "demo-ifc4-mm.ifc", tmp_path, "--needs-design-topics", "per-joint") == 1
+    z = zipfile.ZipFile(io.BytesIO((tmp_path / "issues.bcf").read_bytes()))
+    doc = json.loads((tmp_path / "results.json").read_text())
+    issues = [j for j in doc["joints"] if j["status"] in ("fail", "needs-design", "incomplete")]
+    assert len([n for n in z.namelist() if n.endswith("markup.bcf")]) == len(issues) == 99
