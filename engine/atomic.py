@@ -15,7 +15,8 @@ from typing import Callable, Iterable, Sequence
 
 from engine.errors import OutputError
 
-__all__ = ["write_atomic", "write_atomic_with", "write_all_atomic", "refuse_input_overwrite", "parts_writer"]
+__all__ = ["write_atomic", "write_atomic_with", "write_all_atomic", "write_temps", "commit_all", "new_temp",
+           "unlink_quietly", "refuse_input_overwrite", "parts_writer"]
 
 
 def refuse_input_overwrite(target: str | os.PathLike[str], inputs: list[str | os.PathLike[str]]) -> None:
@@ -84,6 +85,70 @@ def write_atomic(target: str | os.PathLike[str], data: bytes | str) -> Path:
     return write_atomic_with(target, _bytes_writer(data))
 
 
+def new_temp(target: str | os.PathLike[str]) -> str:
+    """A new empty temporary file beside ``target`` (same folder, so the final rename is atomic),
+    named ``.<target name>.<random>.part``. Raises :class:`OutputError` naming the folder."""
+    t = Path(target)
+    if t.is_dir():
+        raise OutputError(f"cannot write {t}: a folder of that name is in the way; remove it or choose "
+                          f"another --out folder")
+    try:
+        fd, tmp = tempfile.mkstemp(prefix=f".{t.name}.", suffix=".part", dir=t.parent)
+    except OSError as exc:
+        raise OutputError(f"cannot write in {t.parent}: {exc.strerror or exc}") from None
+    os.close(fd)
+    return tmp
+
+
+def commit_all(pairs: Sequence[tuple[str, str | os.PathLike[str]]]) -> list[Path]:
+    """Rename each written temporary file over its target, ``(temporary, target)`` in order. If a
+    rename fails, the temporary files not yet renamed are removed, and so are the targets already
+    renamed that did not exist before; the error is an :class:`OutputError`."""
+    targets = [Path(t) for _, t in pairs]
+    existed = [t.exists() for t in targets]
+    done: list[Path] = []
+    for i, ((tmp, _), t) in enumerate(zip(pairs, targets)):
+        try:
+            os.replace(tmp, t)
+        except OSError as exc:
+            for rest, _ in pairs[i:]:
+                _unlink(rest)
+            for d, was in zip(done, existed):
+                if not was:
+                    _unlink(str(d))
+            raise OutputError(f"cannot write {t}: {exc.strerror or exc}") from None
+        done.append(t)
+    return done
+
+
+def write_temps(
+    outputs: Sequence[tuple[str | os.PathLike[str], bytes | str | Callable[[str], None]]],
+) -> list[tuple[str, Path]]:
+    """Write each ``(target, data_or_writer)`` to a temporary file beside its target (``data``
+    bytes or text, or a ``writer(tmp_path)``) and return the ``(temporary, target)`` pairs for
+    :func:`commit_all`. If anything fails, the temporary files are removed and the error is an
+    :class:`OutputError` (an error raised by a writer itself passes through)."""
+    for t, _ in outputs:
+        if Path(t).is_dir():
+            raise OutputError(f"cannot write {t}: a folder of that name is in the way; remove it or choose "
+                              f"another --out folder")
+    pairs: list[tuple[str, Path]] = []
+    try:
+        for t, what in outputs:
+            tmp = new_temp(t)
+            pairs.append((tmp, Path(t)))
+            writer = what if callable(what) else _bytes_writer(what)
+            try:
+                writer(tmp)
+            except OSError as exc:
+                raise OutputError(f"cannot write {t}: {exc.strerror or exc}") from None
+    except BaseException:
+        for tmp, _ in pairs:
+            _unlink(tmp)
+        raise
+    return pairs
+
+
 def write_all_atomic(
     outputs: Sequence[tuple[str | os.PathLike[str], bytes | str | Callable[[str], None]]],
 ) -> list[Path]:
@@ -92,44 +157,12 @@ def write_all_atomic(
     written are they renamed over their targets. If anything fails, the temporary files are
     removed, and so are the targets already renamed that did not exist before; the error is an
     :class:`OutputError`."""
-    targets = [Path(t) for t, _ in outputs]
-    for t in targets:
-        if t.is_dir():
-            raise OutputError(f"cannot write {t}: a folder of that name is in the way; remove it or choose "
-                              f"another --out folder")
-    temps: list[str] = []
-    try:
-        for t, what in outputs:
-            t = Path(t)
-            try:
-                fd, tmp = tempfile.mkstemp(prefix=f".{t.name}.", suffix=".part", dir=t.parent)
-            except OSError as exc:
-                raise OutputError(f"cannot write in {t.parent}: {exc.strerror or exc}") from None
-            os.close(fd)
-            temps.append(tmp)
-            writer = what if callable(what) else _bytes_writer(what)
-            try:
-                writer(tmp)
-            except OSError as exc:
-                raise OutputError(f"cannot write {t}: {exc.strerror or exc}") from None
-    except BaseException:
-        for tmp in temps:
-            _unlink(tmp)
-        raise
-    existed = [t.exists() for t in targets]
-    done: list[Path] = []
-    for i, (t, tmp) in enumerate(zip(targets, temps)):
-        try:
-            os.replace(tmp, t)
-        except OSError as exc:
-            for rest in temps[i:]:
-                _unlink(rest)
-            for d, was in zip(done, existed):
-                if not was:
-                    _unlink(str(d))
-            raise OutputError(f"cannot write {t}: {exc.strerror or exc}") from None
-        done.append(t)
-    return done
+    return commit_all(write_temps(outputs))
+
+
+def unlink_quietly(path: str | os.PathLike[str]) -> None:
+    """Remove a file if it is there (a temporary file being cleaned up); never raises."""
+    _unlink(str(path))
 
 
 def _unlink(path: str) -> None:

@@ -199,34 +199,19 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
     import ifc_io
     from ifc_io.library import audit_model
     from ifc_io.write_bcf import bcf_archive
-    from ifc_io.write_psets_text import write_model_with_psets
+    from ifc_io.write_psets_text import append_joint_psets, prepare_model_copy
 
-    from engine.atomic import parts_writer, refuse_input_overwrite, write_all_atomic
+    from engine.atomic import commit_all, new_temp, parts_writer, refuse_input_overwrite, unlink_quietly, write_temps
+    from engine.background import BackgroundTask
     from engine.raster import to_png
     from engine.report_drawings import elevation_for, issue_drawings
     from engine.report_html import report_parts
     from engine.results import read_baseline, schedule_csv
 
-    # everything that can fail on bad input happens before anything is written
+    # the model and the baseline are read before anything is written
     model = ifc_io.open_model(model_path)
     baseline = read_baseline(baseline_path) if baseline_path else None
-    bar = _ProgressBar()
-    outcome = audit_model(model, code=code, config_file=config_file, schedules=schedules, baseline=baseline,
-                          file_label=Path(model_path).name, progress=bar, design=design)
-    bar.done()
-    doc = outcome.doc
-    drawings, symbols = issue_drawings(outcome.results, outcome.members)
-    html = parts_writer(report_parts(doc, drawings, symbols))
-    # BCF snapshots of the connections that exist (a joint that needs design has nothing to show)
-    snapshots = {r.joint.id: to_png(elevation_for(r, outcome.members[r.joint.beam]))
-                 for r in outcome.results if r.joint.id in drawings and r.connection is not None}
-    project = model.by_type("IfcProject")
-    # a damaged file may hold something other than text in the project's GlobalId or Name
-    guid, name = (project[0].GlobalId, project[0].Name) if project else (None, "")
-    bcf = bcf_archive(doc, version=bcf_version, project_guid=guid if isinstance(guid, str) else None,
-                      project_name=name if isinstance(name, str) else "", snapshots=snapshots,
-                      needs_design=needs_design_topics)
-
+    out_created = not Path(out_dir).exists()
     out = _prepare_out_dir(out_dir)
     stem = Path(model_path).stem
     targets = {
@@ -238,15 +223,59 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
     }
     for t in targets.values():
         refuse_input_overwrite(t, [model_path] + ([baseline_path] if baseline_path else []) + list(schedules))
-    # all or nothing: every output is written to a temporary file before any is renamed into place
-    write_all_atomic([
-        (targets["results"], parts_writer(_results_json(doc))),
-        (targets["schedule"], schedule_csv(doc)),
-        (targets["report"], html),
-        (targets["bcf"], bcf),
-        (targets["ifc"], lambda tmp: write_model_with_psets(model, doc, tmp,
-                                                            n_per_force_unit=outcome.frame.n_per_force_unit)),
-    ])
+    # All or nothing: every output goes to a temporary file, and only when all are written are they
+    # renamed into place; on any error the temporary files (and an output folder made by this run)
+    # are removed. The copy of the model is written while the audit runs (engine.background).
+    temps: list[tuple[str, Path]] = []
+    tasks: list[BackgroundTask] = []
+    try:
+        first_id, owner_id = prepare_model_copy(model)
+        ifc_tmp = new_temp(targets["ifc"])
+        temps.append((ifc_tmp, targets["ifc"]))
+        tasks.append(BackgroundTask(lambda: model.write(ifc_tmp)))
+        bar = _ProgressBar()
+        outcome = audit_model(model, code=code, config_file=config_file, schedules=schedules, baseline=baseline,
+                              file_label=Path(model_path).name, progress=bar, design=design)
+        bar.done()
+        doc = outcome.doc
+        tasks.pop().join()
+        tasks.append(BackgroundTask(lambda: append_joint_psets(
+            model, doc, ifc_tmp, first_id, owner_id, n_per_force_unit=outcome.frame.n_per_force_unit)))
+        drawings, symbols = issue_drawings(outcome.results, outcome.members)
+        html = parts_writer(report_parts(doc, drawings, symbols))
+        # BCF snapshots of the connections that exist (a joint that needs design has nothing to show)
+        snapshots = {r.joint.id: to_png(elevation_for(r, outcome.members[r.joint.beam]))
+                     for r in outcome.results if r.joint.id in drawings and r.connection is not None}
+        project = model.by_type("IfcProject")
+        # a damaged file may hold something other than text in the project's GlobalId or Name
+        guid, name = (project[0].GlobalId, project[0].Name) if project else (None, "")
+        bcf = bcf_archive(doc, version=bcf_version, project_guid=guid if isinstance(guid, str) else None,
+                          project_name=name if isinstance(name, str) else "", snapshots=snapshots,
+                          needs_design=needs_design_topics)
+        temps += write_temps([
+            (targets["results"], parts_writer(_results_json(doc))),
+            (targets["schedule"], schedule_csv(doc)),
+            (targets["report"], html),
+            (targets["bcf"], bcf),
+        ])
+        tasks.pop().join()
+        # the model copy is renamed last, as before
+        commit_all(temps[1:] + temps[:1])
+    except BaseException:
+        for task in tasks:
+            task.cancel()
+        for tmp, _ in temps:
+            unlink_quietly(tmp)
+            # IfcOpenShell writes through a temporary file of its own beside the target, which a
+            # stopped write leaves behind
+            for left in Path(tmp).parent.glob(Path(tmp).name + ".*.tmp"):
+                unlink_quietly(left)
+        if out_created:
+            try:
+                out.rmdir()  # only when empty: nothing of this run is left in it
+            except OSError:
+                pass
+        raise
 
     s = doc["summary"]
     sys.stdout.write(

@@ -180,24 +180,37 @@ _ND_HEAD = (
 )
 
 
-def _needs_design_row(j: Mapping[str, Any]) -> str:
+class _Escaped(dict):
+    """html.escape of texts that repeat from row to row (sections, storeys, kinds, sources,
+    reasons), each escaped once; bounded, so unique texts do not pile up."""
+
+    def __missing__(self, text: str) -> str:
+        value = escape(text)
+        if len(self) < 65536:
+            self[text] = value
+        return value
+
+
+def _needs_design_row(j: Mapping[str, Any], esc: _Escaped | None = None) -> str:
+    esc = _Escaped() if esc is None else esc
     d = j.get("demand")
     shear = "–" if d is None or d.get("V_kN") is None else _fmt(d["V_kN"], 1)
-    src = "" if d is None else f"<br><small>{escape(d['source'])}</small>"
+    src = "" if d is None else f"<br><small>{esc[d['source']]}</small>"
     copes = (j.get("geometry") or {}).get("copes") or []
     cope_txt = "; ".join(f"{escape(str(c.get('where')))} cope {_fmt(c.get('depth'), 0)} x {_fmt(c.get('length'), 0)} mm"
                          for c in copes)
-    note = "; ".join(x for x in (cope_txt, escape(j.get("note") or "")) if x)
-    baseline = f' <span class="tag">{escape(j["baseline"])}</span>' if j.get("baseline") else ""
-    reasons = escape("; ".join(j.get("stiffness_reasons") or []))
+    note = "; ".join(x for x in (cope_txt, esc[j.get("note") or ""]) if x)
+    baseline = f' <span class="tag">{esc[j["baseline"]]}</span>' if j.get("baseline") else ""
+    reasons = "; ".join(esc[r] for r in j.get("stiffness_reasons") or [])  # escaping commutes with joining
+    jid = escape(j["id"])  # escape() quotes by default, so the same text serves attributes
     return (
-        f'<tr class="issue" id="{escape(j["id"], quote=True)}" data-status="needs-design" '
-        f'data-storey="{escape(j.get("storey") or "", quote=True)}" data-kind="{escape(j["kind"], quote=True)}" data-util="">'
-        f'<td><code>{escape(j["id"])}</code>{baseline}</td>'
-        f'<td>{escape(j["end"])} of {escape(j.get("beam_name") or "")} {escape(j.get("beam_section") or "")}<br><code>{escape(j["beam"])}</code></td>'
-        f'<td>{escape(j.get("support_name") or "")} {escape(j.get("support_section") or "")}<br><code>{escape(j.get("support") or "none")}</code></td>'
-        f'<td>{escape(j["kind"])}, {escape(j["stiffness"])}<br><small class="why">{reasons}</small></td>'
-        f'<td>{escape(j.get("storey") or "–")}</td><td class="num">{shear}{src}</td><td>{note}</td></tr>'
+        f'<tr class="issue" id="{jid}" data-status="needs-design" '
+        f'data-storey="{esc[j.get("storey") or ""]}" data-kind="{esc[j["kind"]]}" data-util="">'
+        f'<td><code>{jid}</code>{baseline}</td>'
+        f'<td>{esc[j["end"]]} of {escape(j.get("beam_name") or "")} {esc[j.get("beam_section") or ""]}<br><code>{escape(j["beam"])}</code></td>'
+        f'<td>{esc[j.get("support_name") or ""]} {esc[j.get("support_section") or ""]}<br><code>{esc[j.get("support") or "none"]}</code></td>'
+        f'<td>{esc[j["kind"]]}, {esc[j["stiffness"]]}<br><small class="why">{reasons}</small></td>'
+        f'<td>{esc[j.get("storey") or "–"]}</td><td class="num">{shear}{src}</td><td>{note}</td></tr>'
     )
 
 
@@ -254,8 +267,9 @@ def report_parts(
         yield "".join(batch) + "</section>"
         if needs_design:
             yield _ND_HEAD
+            esc = _Escaped()
             for i in range(0, len(needs_design), 1000):
-                yield "".join(_needs_design_row(j) for j in needs_design[i:i + 1000])
+                yield "".join(_needs_design_row(j, esc) for j in needs_design[i:i + 1000])
             yield "</tbody></table>"
     removed = doc.get("baseline_removed") or []
     if removed:

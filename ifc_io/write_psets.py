@@ -25,7 +25,8 @@ from typing import Any, Iterable, Mapping
 
 import ifcopenshell
 
-__all__ = ["PSET_BY_END", "PSET_NAMES", "write_joint_psets", "remove_joint_psets", "read_joint_psets", "iter_joint_beams"]
+__all__ = ["PSET_BY_END", "PSET_NAMES", "write_joint_psets", "remove_joint_psets", "remove_all_joint_psets",
+           "read_joint_psets", "iter_joint_beams"]
 
 PSET_BY_END = {"start": "JointAudit_Start", "end": "JointAudit_End"}
 PSET_NAMES = frozenset(PSET_BY_END.values())
@@ -69,6 +70,19 @@ def remove_joint_psets(model: ifcopenshell.file, element) -> int:
             _remove_one(model, element, rel)
             removed += 1
     return removed
+
+
+def remove_all_joint_psets(model: ifcopenshell.file) -> int:
+    """Remove every ``JointAudit_*`` property set from every element of ``model``; returns how many
+    were removed."""
+    owners: dict[int, Any] = {}
+    for pset in model.by_type("IfcPropertySet"):
+        if pset.Name in PSET_NAMES:
+            for rel in model.get_inverse(pset):
+                if rel.is_a("IfcRelDefinesByProperties"):
+                    for obj in rel.RelatedObjects or ():
+                        owners[obj.id()] = obj
+    return sum(remove_joint_psets(model, obj) for obj in owners.values())
 
 
 def _owner_history(model: ifcopenshell.file):

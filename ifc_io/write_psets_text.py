@@ -7,9 +7,11 @@ exactly that of :func:`ifc_io.write_psets.write_joint_psets` (the same property 
 derived GlobalIds; ``tests/test_write_psets.py`` checks the two agree), so the plug-in path (an open
 model, entities created in memory) and the command line (a file written to disk) give the same sets.
 
-Procedure: remove any earlier ``JointAudit_*`` sets from the open model (a re-run replaces, never
-duplicates), write the model to the target with ifcopenshell, then insert the new entities — numbered
-after the model's largest id — before the end of its DATA section. STEP strings are encoded per ISO
+Procedure: remove every earlier ``JointAudit_*`` set from the open model (a re-run replaces, never
+duplicates, and leaves no stale result), write the model to the target with ifcopenshell, then insert
+the new entities — numbered after the model's largest id — before the end of its DATA section. The
+command line writes the model while the audit runs (:mod:`engine.background`) and adds the sets
+afterwards, so the steps are separate functions. STEP strings are encoded per ISO
 10303-21 (apostrophes doubled, backslashes doubled, other than printable ASCII as ``\\X2\\…\\X0\\`` /
 ``\\X4\\…\\X0\\``).
 
@@ -26,9 +28,10 @@ from typing import Any, Iterable, Iterator, Mapping
 import ifcopenshell
 
 from engine.errors import OutputError
-from ifc_io.write_psets import PSET_NAMES, _guid, _owner_history, _properties, iter_joint_beams, remove_joint_psets
+from ifc_io.write_psets import PSET_NAMES, _guid, _owner_history, _properties, iter_joint_beams, remove_all_joint_psets
 
-__all__ = ["step_string", "step_real", "joint_pset_lines", "iter_joint_pset_lines", "write_model_with_psets"]
+__all__ = ["step_string", "step_real", "joint_pset_lines", "iter_joint_pset_lines", "prepare_model_copy",
+           "append_joint_psets", "write_model_with_psets"]
 
 _DESCRIPTION = "joint-audit result for this beam end (an aid to a competent engineer; check it)"
 
@@ -158,28 +161,31 @@ def joint_pset_lines(
 _TAIL = 1 << 16  # the end of the DATA section is looked for in the file's last 64 KiB
 
 
-def write_model_with_psets(
+def prepare_model_copy(model: ifcopenshell.file) -> tuple[int, int | None]:
+    """Get ``model`` (in memory; the input file is never touched) ready to be written as the audited
+    copy: every earlier ``JointAudit_*`` set is removed — from every element, so a beam end that is no
+    longer a joint, or no longer checked, keeps no stale result — and IFC2X3's owner history is added
+    if the model has none. Returns the first free entity id and the owner history's id (``None`` in
+    IFC4 and later)."""
+    if any(p.Name in PSET_NAMES for p in model.by_type("IfcPropertySet")):
+        remove_all_joint_psets(model)
+    owner = _owner_history(model)
+    return int(model.get_max_id()) + 1, (owner.id() if owner is not None else None)
+
+
+def append_joint_psets(
     model: ifcopenshell.file,
     doc: Mapping[str, Any],
     path: str,
+    first_id: int,
+    owner_id: int | None,
     *,
     n_per_force_unit: float = 1.0,
 ) -> int:
-    """Write ``model`` to ``path`` with the results' property sets (see the module docstring);
-    returns the number of sets written. ``model`` loses its earlier ``JointAudit_*`` sets (in memory
-    only; the input file is never touched).
-
-    The new lines go in place of the file's closing ``ENDSEC;`` and are streamed to disk in
+    """Add the results' property sets to the model file already written at ``path`` (from ``model``
+    after :func:`prepare_model_copy`, which gave ``first_id`` and ``owner_id``); returns the number
+    of sets. The new lines go in place of the file's closing ``ENDSEC;`` and are streamed to disk in
     batches: neither the written model nor the property sets are ever held whole in memory."""
-    if any(p.Name in PSET_NAMES for p in model.by_type("IfcPropertySet")):
-        for joint in doc["joints"]:
-            try:
-                remove_joint_psets(model, model.by_guid(joint["beam"]))
-            except RuntimeError:
-                continue
-    owner = _owner_history(model)
-    first = int(model.get_max_id()) + 1
-    model.write(path)
     with open(path, "r+b") as fh:
         head = fh.read(2000)
         nl = b"\r\n" if b"\r\n" in head else b"\n"
@@ -196,8 +202,8 @@ def write_model_with_psets(
         counter = [0]
         batch: list[str] = []
         sep = nl.decode("ascii")
-        for line in iter_joint_pset_lines(model, doc, first, n_per_force_unit=n_per_force_unit,
-                                          owner_id=owner.id() if owner is not None else None, counter=counter):
+        for line in iter_joint_pset_lines(model, doc, first_id, n_per_force_unit=n_per_force_unit,
+                                          owner_id=owner_id, counter=counter):
             batch.append(line)
             if len(batch) >= 20000:
                 fh.write((sep.join(batch) + sep).encode("ascii"))
@@ -206,3 +212,19 @@ def write_model_with_psets(
             fh.write((sep.join(batch) + sep).encode("ascii"))
         fh.write(closing)
     return counter[0]
+
+
+def write_model_with_psets(
+    model: ifcopenshell.file,
+    doc: Mapping[str, Any],
+    path: str,
+    *,
+    n_per_force_unit: float = 1.0,
+) -> int:
+    """Write ``model`` to ``path`` with the results' property sets (see the module docstring):
+    :func:`prepare_model_copy`, IfcOpenShell's write, :func:`append_joint_psets`. Returns the number
+    of sets written. ``model`` loses its earlier ``JointAudit_*`` sets (in memory only; the input
+    file is never touched)."""
+    first, owner = prepare_model_copy(model)
+    model.write(path)
+    return append_joint_psets(model, doc, path, first, owner, n_per_force_unit=n_per_force_unit)

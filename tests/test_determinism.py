@@ -124,3 +124,14 @@ def test_masking_would_catch_a_real_difference(tmp_path, capsys):
     capsys.readouterr()
     with pytest.raises(AssertionError):  # without the schedule the statuses change
         _compare(_masked(tmp_path / "a"), _masked(tmp_path / "b"))
+
+
+def test_the_copy_written_in_a_child_process_equals_the_one_written_in_process(tmp_path, capsys, monkeypatch):
+    # engine.background writes the model copy in a forked child on Linux; JOINT_AUDIT_SERIAL=1 does
+    # it all in one process: the outputs must not depend on which
+    monkeypatch.setattr(ifc_io.library, "now_iso", lambda: "2026-12-05T12:00:00+00:00")
+    assert main(["audit", str(MODEL), *ARGS, "--out", str(tmp_path / "forked")]) == 1
+    monkeypatch.setenv("JOINT_AUDIT_SERIAL", "1")
+    assert main(["audit", str(MODEL), *ARGS, "--out", str(tmp_path / "serial")]) == 1
+    capsys.readouterr()
+    _compare(_masked(tmp_path / "forked"), _masked(tmp_path / "serial"))

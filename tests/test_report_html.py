@@ -43,3 +43,16 @@ def test_every_issue_is_listed_and_passing_joints_are_not():
 def test_no_issue_page_says_so():
     html = render_report(doc([result(B, C, "pass")], members(B, C)))
     assert "No issues: every checked joint passes." in html
+
+
+def test_joints_needing_design_are_escaped_table_rows_without_drawings():
+    evil = '<script>alert("x")</script>'
+    mem = members(B, C, beam_name=evil, storey='L1"><b>')
+    d = doc([result(B, C, "needs-design")], mem)
+    d["joints"][0]["stiffness_reasons"] = ["flange <b>", "web & 'stem'"]
+    html = render_report(d)
+    assert html.count('<tr class="issue"') == 1 and '<article class="issue"' not in html
+    assert "<script>alert" not in html and "&lt;script&gt;" in html
+    assert 'data-storey="L1&quot;&gt;&lt;b&gt;"' in html
+    assert "flange &lt;b&gt;; web &amp; &#x27;stem&#x27;" in html
+    assert "<svg" not in html.split("<main>")[1]  # no drawing for a joint with no connection
