@@ -30,7 +30,7 @@ import ifcopenshell
 from engine.errors import OutputError
 from ifc_io.write_psets import PSET_NAMES, _guid, _owner_history, _properties, iter_joint_beams, remove_all_joint_psets
 
-__all__ = ["step_string", "step_real", "joint_pset_lines", "iter_joint_pset_lines", "prepare_model_copy",
+__all__ = ["step_string", "step_real", "iter_joint_pset_lines", "prepare_model_copy",
            "append_joint_psets", "write_model_with_psets"]
 
 _DESCRIPTION = "joint-audit result for this beam end (an aid to a competent engineer; check it)"
@@ -138,24 +138,6 @@ def iter_joint_pset_lines(
         n += 1
         if counter is not None:
             counter[0] += 1
-
-
-def joint_pset_lines(
-    model: ifcopenshell.file,
-    doc: Mapping[str, Any],
-    first_id: int,
-    *,
-    n_per_force_unit: float = 1.0,
-    statuses: Iterable[str] = ("pass", "fail", "needs-design", "incomplete"),
-    owner_id: int | None = None,
-) -> tuple[list[str], int]:
-    """STEP lines of one property set per joint of ``doc`` whose status is in ``statuses`` (as
-    :func:`ifc_io.write_psets.write_joint_psets` writes them), ids from ``first_id``; returns the
-    lines and the number of sets."""
-    counter = [0]
-    lines = list(iter_joint_pset_lines(model, doc, first_id, n_per_force_unit=n_per_force_unit,
-                                       statuses=statuses, owner_id=owner_id, counter=counter))
-    return lines, counter[0]
 
 
 _TAIL = 1 << 16  # the end of the DATA section is looked for in the file's last 64 KiB
