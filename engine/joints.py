@@ -88,13 +88,23 @@ class JointFinding:
     ``joints``: every beam and brace end that is a joint (supported, ``free-end``, ``splice``,
     ``unknown``), and column splices. ``unresolved``: ends left without a decision, with why.
     ``warnings``: e.g. an explicit relation that disagrees with the geometry. ``graph``: see
-    :mod:`engine.graph`.
+    :mod:`engine.graph`; built the first time it is asked for (the audit itself does not need it,
+    and on large frames it costs time and memory), from ``graph_source`` = (members, joints,
+    bearings), or given ready-made.
     """
 
     joints: tuple[Joint, ...]
     unresolved: tuple[UnresolvedEnd, ...]
     warnings: tuple[DataWarning, ...]
-    graph: nx.MultiDiGraph = field(repr=False)
+    graph_source: tuple = field(default=((), (), ()), repr=False)
+    _graph: list = field(default_factory=list, repr=False)
+
+    @property
+    def graph(self) -> nx.MultiDiGraph:
+        """The networkx graph of members and joints (:mod:`engine.graph`), built once on first use."""
+        if not self._graph:
+            self._graph.append(build_graph(*self.graph_source))
+        return self._graph[0]
 
     def by_end(self) -> dict[tuple[str, str], Joint]:
         """Joints keyed by (beam GlobalId, end)."""
@@ -285,7 +295,7 @@ def _find_joints(members: Sequence[Member], bearings: Sequence[Bearing],
                                         "duplicates may be confused", m.global_id, "joints"))
         seen.add(m.global_id)
     if not members:
-        return JointFinding((), (), tuple(warnings), build_graph([], [], bearings))
+        return JointFinding((), (), tuple(warnings), ((), (), tuple(bearings)))
     arr = MemberArrays.from_members(members, tol)
     index = {gid: i for i, gid in enumerate(arr.ids)}
     unresolved: list[UnresolvedEnd] = []
@@ -545,8 +555,8 @@ def _find_joints(members: Sequence[Member], bearings: Sequence[Bearing],
         key = last[em[joint_e]] * 2 + ek[joint_e]
         joints = [joints[i] for i in np.argsort(key, kind="stable").tolist()]
     unresolved.sort(key=lambda u: (index.get(u.beam, -1), _ENDS.index(u.end) if u.end in _ENDS else 2))
-    graph = build_graph(members, joints, bearings)
-    return JointFinding(tuple(joints), tuple(unresolved), tuple(warnings), graph)
+    return JointFinding(tuple(joints), tuple(unresolved), tuple(warnings),
+                        (tuple(members), tuple(joints), tuple(bearings)))
 
 
 def _carrier_label(arr: MemberArrays, bearings: list[Bearing], pr: "_Pairs", ch: "_Choice") -> str:
