@@ -224,6 +224,8 @@ def resolve_demands_detailed(
             warnings.extend(td.warnings)
 
     frac = float(d["capacity_fraction"])  # type: ignore[arg-type]
+    fraction_text = f"{frac:g} × design web shear capacity (no analysis; common practice)"
+    texts: dict[tuple[float, str], str] = {}
     caps: dict[str, tuple[float | None, str]] = {}
     demands: dict[str, Demand | None] = {}
     missing: dict[str, str] = {}
@@ -300,11 +302,13 @@ def resolve_demands_detailed(
                 if cap is None:
                     reasons.append(f"capacity-fraction: {why}")
                     continue
+                # one text object per distinct wording (beams of one section share it)
+                detail = texts.setdefault(
+                    (cap, m.section.name),
+                    f"{frac:g} × {cap / 1e3:.1f} kN web shear capacity of {m.section.name} = "
+                    f"{frac * cap / 1e3:.1f} kN" + tie_note)
                 found = Demand(V=frac * cap, N=tie_N, source="capacity-fraction",
-                               combination=(f"{frac:g} × design web shear capacity (no analysis; "
-                                            f"common practice)"),
-                               detail=(f"{frac:g} × {cap / 1e3:.1f} kN web shear capacity of "
-                                       f"{m.section.name} = {frac * cap / 1e3:.1f} kN" + tie_note))
+                               combination=fraction_text, detail=detail)
             if found is not None:
                 break
         demands[j.id] = found

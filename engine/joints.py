@@ -1020,10 +1020,14 @@ def _build_joints(arr: MemberArrays, members: list[Member], bearings: list[Beari
                                   f"to clear the flange of {sup_label[i]}")
 
     loc_all = arr.end_point(em, ek, centroid=False).tolist()
+    # one string object per distinct reason text: most texts recur from joint to joint (a third are
+    # distinct on a synthetic 20k frame), and every later stage keeps them
+    texts: dict[str, str] = {}
+    share = texts.setdefault
     joints = [Joint(j, ids[bi], _ENDS[k], ids[si], kind,
                     JointGeometry(tuple(loc_all[e]), angle, gap, None if tos != tos else tos, cp, cont,
                                   pid),
-                    st, tuple(rsn) + rs, src)
+                    st, tuple([share(r, r) for r in rsn] + [share(r, r) for r in rs]), src)
               for j, e, bi, k, si, kind, angle, gap, tos, cp, cont, pid, (st, rs), rsn, src
               in zip(jid, e_l, b_l, k_l, s_l, f.kind, f.angle, f.gap, f.tos, copes, f.cont, partner_id,
                      verdicts, reasons_all, source)]
