@@ -239,8 +239,14 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
         bar.done()
         doc = outcome.doc
         tasks.pop().join()
-        tasks.append(BackgroundTask(lambda: append_joint_psets(
-            model, doc, ifc_tmp, first_id, owner_id, n_per_force_unit=outcome.frame.n_per_force_unit)))
+        csv_tmp = new_temp(targets["schedule"])
+        temps.append((csv_tmp, targets["schedule"]))
+
+        def _copy_and_schedule() -> None:  # in a child: the property sets, then the CSV schedule
+            append_joint_psets(model, doc, ifc_tmp, first_id, owner_id, n_per_force_unit=outcome.frame.n_per_force_unit)
+            Path(csv_tmp).write_text(schedule_csv(doc), encoding="utf-8")
+
+        tasks.append(BackgroundTask(_copy_and_schedule))
         drawings, symbols = issue_drawings(outcome.results, outcome.members)
         html = parts_writer(report_parts(doc, drawings, symbols))
         # BCF snapshots of the connections that exist (a joint that needs design has nothing to show)
@@ -254,13 +260,13 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
                           needs_design=needs_design_topics)
         temps += write_temps([
             (targets["results"], parts_writer(_results_json(doc))),
-            (targets["schedule"], schedule_csv(doc)),
             (targets["report"], html),
             (targets["bcf"], bcf),
         ])
         tasks.pop().join()
-        # the model copy is renamed last, as before
-        commit_all(temps[1:] + temps[:1])
+        # renamed in the order results, schedule, report, BCF, and the model copy last, as before
+        by_target = {str(t): (tmp, t) for tmp, t in temps}
+        commit_all([by_target[str(targets[k])] for k in ("results", "schedule", "report", "bcf", "ifc")])
     except BaseException:
         for task in tasks:
             task.cancel()
@@ -291,18 +297,21 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
 
 
 def _results_json(doc: dict[str, Any]) -> Iterator[str]:
-    """results.json text, in pieces: the document with one joint per line (readable, and fast to
-    write for large models: each line goes through the C JSON encoder, and the whole text is never
-    held in memory). Text outside ASCII is written as JSON escapes."""
-    head = {k: v for k, v in doc.items() if k != "joints"}
+    """results.json text, in pieces: the document with one joint (and one warning) per line
+    (readable, and fast to write for large models: each line goes through the C JSON encoder, and
+    the whole text is never held in memory). Text outside ASCII is written as JSON escapes."""
+    listed = ("baseline_removed", "warnings", "joints")
+    head = {k: v for k, v in doc.items() if k not in listed}
     text = json.dumps(head, indent=1)
-    yield text[:-2] + ',\n "joints": [\n'
     encode = json.JSONEncoder(check_circular=False).encode
-    joints = doc["joints"]
-    for i in range(0, len(joints), 2000):
-        chunk = ",\n".join("  " + encode(j) for j in joints[i:i + 2000])
-        yield (",\n" if i else "") + chunk
-    yield "\n ]\n}\n"
+    yield text[:-2] + ",\n" if head else "{\n"
+    for n, key in enumerate(k for k in listed if k in doc):
+        items = doc[key]
+        yield (",\n" if n else "") + f" {json.dumps(key)}: [" + ("\n" if items else "")
+        for i in range(0, len(items), 2000):
+            yield (",\n" if i else "") + ",\n".join("  " + encode(x) for x in items[i:i + 2000])
+        yield "\n ]" if items else "]"
+    yield "\n}\n"
 
 
 def _without_cycle_collection(fn):
