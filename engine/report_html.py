@@ -191,6 +191,9 @@ class _Escaped(dict):
         return value
 
 
+_NO_CONNECTION = "no connection modelled or scheduled"
+
+
 def _needs_design_row(j: Mapping[str, Any], esc: _Escaped | None = None) -> str:
     esc = _Escaped() if esc is None else esc
     d = j.get("demand")
@@ -199,7 +202,10 @@ def _needs_design_row(j: Mapping[str, Any], esc: _Escaped | None = None) -> str:
     copes = (j.get("geometry") or {}).get("copes") or []
     cope_txt = "; ".join(f"{escape(str(c.get('where')))} cope {_fmt(c.get('depth'), 0)} x {_fmt(c.get('length'), 0)} mm"
                          for c in copes)
-    note = "; ".join(x for x in (cope_txt, esc[j.get("note") or ""]) if x)
+    raw_note = j.get("note") or ""
+    if raw_note == _NO_CONNECTION:  # what the table's heading already says
+        raw_note = ""
+    note = "; ".join(x for x in (cope_txt, esc[raw_note]) if x)
     baseline = f' <span class="tag">{esc[j["baseline"]]}</span>' if j.get("baseline") else ""
     reasons = "; ".join(esc[r] for r in j.get("stiffness_reasons") or [])  # escaping commutes with joining
     jid = escape(j["id"])  # escape() quotes by default, so the same text serves attributes
