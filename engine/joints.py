@@ -41,7 +41,6 @@ governing local code and licensed practice take precedence.
 
 from __future__ import annotations
 
-import gc
 import math
 from collections import defaultdict
 from dataclasses import dataclass, field
@@ -50,6 +49,7 @@ from typing import Any, Sequence
 import networkx as nx
 import numpy as np
 
+from engine.gc_pause import cycle_collection_paused
 from engine.graph import build_graph
 from engine.joint_geometry import (MemberArrays, angle_between_deg, copes_for_web_joints,
                                    pair_metrics, tops_and_bottoms)
@@ -270,15 +270,10 @@ def find_joints(members: Sequence[Member], bearings: Sequence[Bearing] = (),
     """
     if policy not in POLICIES:
         raise ConfigError(f"[support] policy {policy!r} is not one of {', '.join(POLICIES)}")
-    # building tens of thousands of small frozen records: pause the cyclic garbage collector, whose
-    # full passes otherwise grow with the heap and make the time per member climb with model size
-    paused = gc.isenabled()
-    gc.disable()
-    try:
+    # building tens of thousands of small frozen records: the cyclic collector's full passes would
+    # otherwise grow with the heap and make the time per member climb with model size
+    with cycle_collection_paused():
         return _find_joints(members, bearings, explicit, tolerances, policy)
-    finally:
-        if paused:
-            gc.enable()
 
 
 def _find_joints(members: Sequence[Member], bearings: Sequence[Bearing],

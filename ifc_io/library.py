@@ -25,6 +25,7 @@ import ifcopenshell
 from engine.audit import AuditOutcome, Progress, run_audit
 from engine.config import load_config, member_grade, merge_config, plate_grade, weld_electrode
 from engine.errors import BadInputError
+from engine.gc_pause import cycle_collection_paused
 from engine.model import Frame
 
 __all__ = ["audit_model", "read_frame_with_connections", "load_schedules", "now_iso"]
@@ -136,14 +137,15 @@ def audit_model(
     ruleset = rules.load(cfg["code"])
     demand_schedule, connection_schedule = load_schedules(schedules)
     label = file_label or _header_file_name(model)
-    frame = read_frame_with_connections(model, cfg, label)
     kwargs: dict[str, Any] = {} if progress is None else {"progress": progress}
     if design:
         kwargs["design_space"] = design_space_for(cfg, lookup_steel)
-    outcome = run_audit(
-        frame, cfg, ruleset, steel_lookup=lookup_steel, demand_schedule=demand_schedule,
-        connection_schedule=connection_schedule, baseline=baseline, run_date=run_date or now_iso(), **kwargs,
-    )
+    with cycle_collection_paused():  # restored after, whatever the host program had (engine.gc_pause)
+        frame = read_frame_with_connections(model, cfg, label)
+        outcome = run_audit(
+            frame, cfg, ruleset, steel_lookup=lookup_steel, demand_schedule=demand_schedule,
+            connection_schedule=connection_schedule, baseline=baseline, run_date=run_date or now_iso(), **kwargs,
+        )
     if write_psets:
         from ifc_io.write_psets import write_joint_psets
 

@@ -73,3 +73,24 @@ def test_serial_environment_variable_turns_forking_off(monkeypatch):
     seen = []
     BackgroundTask(lambda: seen.append(os.getpid())).join()
     assert seen == [os.getpid()]  # ran here, in this process
+
+
+def test_cycle_collection_is_paused_inside_and_restored_after():
+    import gc
+
+    from engine.gc_pause import cycle_collection_paused
+
+    assert gc.isenabled()
+    with cycle_collection_paused():
+        assert not gc.isenabled()
+        with cycle_collection_paused():  # nested: still paused after the inner block
+            pass
+        assert not gc.isenabled()
+    assert gc.isenabled()
+    gc.disable()
+    try:
+        with cycle_collection_paused():
+            pass
+        assert not gc.isenabled()  # a host program that had it off keeps it off
+    finally:
+        gc.enable()
