@@ -38,10 +38,14 @@ from lxml import etree
 
 from engine.errors import OutputError
 
-__all__ = ["topic_guid", "storey_topic_guid", "bcf_archive", "BCF_VERSIONS", "ISSUE_STATUSES", "NEEDS_DESIGN_TOPICS"]
+__all__ = ["topic_guid", "storey_topic_guid", "bcf_archive", "BCF_VERSIONS", "ISSUE_STATUSES", "NEEDS_DESIGN_TOPICS",
+           "GROUP_LISTED"]
 
 BCF_VERSIONS = ("2.1", "3.0")
 NEEDS_DESIGN_TOPICS = ("per-storey", "per-joint")
+GROUP_LISTED = 200
+"""How many joints a storey topic's description names (the viewpoint selects all their beams): a
+coordination tool shows the description as one block of text."""
 ISSUE_STATUSES = ("fail", "needs-design", "incomplete")
 _NS = uuid.UUID("0d6f4a0e-3c1b-5e7a-9b8c-5a4d3e2f1b0c")
 _AUTHOR = "joint-audit"
@@ -228,8 +232,9 @@ def _group_topic(storey: str, joints: Sequence[Mapping[str, Any]], doc: Mapping[
             + (f" (largest V* = {max(shears):g} kN)" if shears else "") + ". By kind: "
             + ", ".join(f"{k} {c}" for k, c in sorted(kinds.items())) + ". Joints (id: end of beam on support): "
             + "; ".join(f"{j['id']}: {j['end']} of {j.get('beam_name') or j['beam']} on "
-                        f"{j.get('support_name') or j.get('support') or 'no support'}" for j in joints)
-            + ". Each joint is listed in issues.html and results.json. "
+                        f"{j.get('support_name') or j.get('support') or 'no support'}" for j in joints[:GROUP_LISTED])
+            + (f"; and {n - GROUP_LISTED} more" if n > GROUP_LISTED else "")
+            + ". Every joint is listed in issues.html and results.json. "
             "joint-audit is an aid to a competent engineer; check this result.")
     markup = _topic_xml(guid, _guid(guid, "viewpoint"), _guid(guid, "comment"), title, _group_labels(storey),
                         description, doc, version, date, project_guid, closed, False)

@@ -135,3 +135,17 @@ def test_snapshot_is_packed_and_referenced():
     g = topic_guid(issue["id"])
     assert z.read(f"{g}/snapshot.png").startswith(b"\x89PNG")
     assert etree.fromstring(z.read(f"{g}/markup.bcf")).find("Viewpoints/Snapshot").text == "snapshot.png"
+
+
+def test_a_storey_topic_names_at_most_its_limit_of_joints_and_selects_every_beam(monkeypatch):
+    import ifc_io.write_bcf as W
+
+    monkeypatch.setattr(W, "GROUP_LISTED", 1)
+    d = _needs_design_doc()
+    z = zipfile.ZipFile(io.BytesIO(bcf_archive(d)))
+    g = storey_topic_guid("Level 2")
+    description = etree.fromstring(z.read(f"{g}/markup.bcf")).find("Topic/Description").text
+    nd2 = sorted(j["id"] for j in d["joints"] if j["status"] == "needs-design" and j["storey"] == "Level 2")
+    assert sum(jid in description for jid in nd2) == 1 and "; and 1 more." in description
+    vis = etree.fromstring(z.read(f"{g}/viewpoint.bcfv"))
+    assert len(vis.findall("Components/Selection/Component")) == 2
