@@ -135,3 +135,23 @@ def test_the_copy_written_in_a_child_process_equals_the_one_written_in_process(t
     assert main(["audit", str(MODEL), *ARGS, "--out", str(tmp_path / "serial")]) == 1
     capsys.readouterr()
     _compare(_masked(tmp_path / "forked"), _masked(tmp_path / "serial"))
+
+
+@pytest.mark.parametrize("serial", ["", "1"])
+def test_a_failed_model_copy_leaves_no_output_and_exits_2(tmp_path, capsys, monkeypatch, serial):
+    # the copy is written in a forked child (or in process with JOINT_AUDIT_SERIAL=1); a full disk
+    # there must end the run like any other write error: one line, exit 2, nothing left behind
+    import errno
+
+    import ifcopenshell
+
+    def full_disk(self, path, *a, **k):
+        raise OSError(errno.ENOSPC, "No space left on device", path)
+
+    monkeypatch.setattr(ifcopenshell.file, "write", full_disk)
+    monkeypatch.setenv("JOINT_AUDIT_SERIAL", serial)
+    out = tmp_path / "out"
+    assert main(["audit", str(MODEL), *ARGS, "--out", str(out)]) == 2
+    err = capsys.readouterr().err
+    assert err.count("\n") == 1 and "No space left on device" in err
+    assert not out.exists()  # the folder this run made is removed again
