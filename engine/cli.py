@@ -221,14 +221,14 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
         "report": out / "issues.html",
         "bcf": out / "issues.bcf",
     }
-    for t in targets.values():
-        refuse_input_overwrite(t, [model_path] + ([baseline_path] if baseline_path else []) + list(schedules))
     # All or nothing: every output goes to a temporary file, and only when all are written are they
     # renamed into place; on any error the temporary files (and an output folder made by this run)
     # are removed. The copy of the model is written while the audit runs (engine.background).
     temps: list[tuple[str, Path]] = []
     tasks: list[BackgroundTask] = []
     try:
+        for t in targets.values():
+            refuse_input_overwrite(t, [model_path] + ([baseline_path] if baseline_path else []) + list(schedules))
         first_id, owner_id = prepare_model_copy(model)
         ifc_tmp = new_temp(targets["ifc"])
         temps.append((ifc_tmp, targets["ifc"]))
