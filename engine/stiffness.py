@@ -128,12 +128,10 @@ def _torsion_j(s: Section) -> float | None:
 
 def relative_stiffness(f: SupportFacts) -> float | None:
     """``k_support / (E I_beam / L_beam)`` (dimensionless) for column-flange, column-web and beam-web
-    supports, or ``None`` when the sections, lengths or kind do not allow it (see module docstring)."""
-    if f.beam_section is None or f.support_section is None or not f.beam_length:
-        return None
-    ib = _i_major(f.beam_section)
-    return _ratio_of(f.kind, ib, _support_value(f.kind, f.support_section), f.beam_length,
-                     f.h_before, f.h_after)
+    supports, or ``None`` when the sections, lengths or kind do not allow it (see module docstring).
+    One joint of :func:`relative_stiffness_batch`."""
+    return relative_stiffness_batch([f.kind], [f.beam_section], [f.support_section], [f.beam_length],
+                                    [f.h_before], [f.h_after])[0]
 
 
 def _support_value(kind: str, s: Section) -> float | None:
@@ -148,32 +146,15 @@ def _support_value(kind: str, s: Section) -> float | None:
     return None
 
 
-def _ratio_of(kind: str, ib: float | None, sv: float | None, beam_length: float | None,
-              h_before: float | None, h_after: float | None) -> float | None:
-    """The ratio of :func:`relative_stiffness` from the section values (I mm⁴, lengths mm)."""
-    if not ib or not beam_length:
-        return None
-    k_beam = E_STEEL * ib / beam_length
-    arms = [h for h in (h_before, h_after) if h and h > 1.0]
-    if not arms:
-        return None
-    if kind == "column-flange" or kind == "column-web":
-        k = None if sv is None else sum(3.0 * E_STEEL * sv / h for h in arms)
-    elif kind == "beam-web":
-        k = None if sv is None else sum(G_STEEL * sv / h for h in arms)
-    else:
-        return None
-    return None if k is None else k / k_beam
-
-
 def relative_stiffness_batch(kinds: Sequence[str], beam_sections: Sequence[Section | None],
                              support_sections: Sequence[Section | None],
                              beam_lengths: Sequence[float | None], h_before: Sequence[float | None],
                              h_after: Sequence[float | None]) -> list[float | None]:
-    """:func:`relative_stiffness` for many joints at once (sequences of equal length; lengths mm).
-
-    Same method and the same floating-point operations in the same order, vectorised with numpy over
-    the joints; the section properties (I, J) are worked out once per distinct section object.
+    """``k_support / (E I_beam / L_beam)`` for many joints at once (sequences of equal length;
+    lengths mm), ``None`` where the sections, lengths or kind do not allow it: k_support is the sum
+    over the column lengths (or girder arms) either side longer than 1 mm of 3 E I / h (I major for a
+    column flange, I minor for a column web) or G J / h (girder web). Vectorised with numpy over the
+    joints; the section properties (I, J) are worked out once per distinct section object.
     """
     n = len(kinds)
     if n == 0:
