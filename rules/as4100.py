@@ -507,27 +507,25 @@ class AS4100(RuleSet):
             Aw = bm.d * bm.tw
             gross_note = f"Aw = d tw = {Aw:.0f} mm², αv = {av:.3f}"
             cap_y = f["phi"]["member"] * av * C.Vw_shear(bm.fy, Aw)
-        elif bm.cope_top > 0 and bm.cope_bottom > 0:
-            # double coped: the web alone, a rectangle h × tw (cl. 5.11.3, f*vm/f*va = 1.5)
-            Aw = h * bm.tw
-            cap_y = f["phi"]["member"] * C.Vv_nonuniform(C.Vw_shear(bm.fy, Aw), C.RECT_SHEAR_STRESS_RATIO)
-            gross_note = f"double coped: Aw = {h:g} × {bm.tw:g} = {Aw:.0f} mm², f*vm/f*va = 1.5 (cl. 5.11.3)"
-        elif bm.bf is not None and bm.tf is not None:
-            # coped at one flange: the tee's stem below the flange carries the shear (cl. 5.11.3,
-            # f*vm/f*va from the tee's elastic shear flow), as ASI Handbook 1 (2007) Ch 6.5
-            dw = h - bm.tf
-            if dw <= 0:
-                return [C.incomplete_check("beam web shear", _CLAUSE["beam web shear"],
-                                           "the cope leaves no web below the flange", "N")]
-            Aw = dw * bm.tw
-            ratio = C.tee_shear_stress_ratio(bm.bf, bm.tf, bm.tw, dw)
-            cap_y = f["phi"]["member"] * C.Vv_nonuniform(C.Vw_shear(bm.fy, Aw), ratio)
-            gross_note = f"coped at one flange: stem Aw = {dw:g} × {bm.tw:g} = {Aw:.0f} mm², f*vm/f*va = {ratio:.2f} (cl. 5.11.3)"
         else:
-            # flange unknown: the remaining depth as a rectangle (cl. 5.11.3, f*vm/f*va = 1.5)
-            Aw = h * bm.tw
-            cap_y = f["phi"]["member"] * C.Vv_nonuniform(C.Vw_shear(bm.fy, Aw), C.RECT_SHEAR_STRESS_RATIO)
-            gross_note = f"coped, flange unknown: Aw = {h:g} × {bm.tw:g} = {Aw:.0f} mm², f*vm/f*va = 1.5 (cl. 5.11.3)"
+            # coped: non-uniform shear in what is left (cl. 5.11.3). Coped at one flange with the
+            # flange known, the tee's stem below the flange carries it, f*vm/f*va from the tee's
+            # elastic shear flow (as ASI Handbook 1 (2007) Ch 6.5); double coped, or the flange
+            # unknown, the remaining depth as a rectangle (f*vm/f*va = 1.5)
+            one_flange = (bm.cope_top > 0) != (bm.cope_bottom > 0)
+            if one_flange and bm.bf is not None and bm.tf is not None:
+                dw = h - bm.tf
+                if dw <= 0:
+                    return [C.incomplete_check("beam web shear", _CLAUSE["beam web shear"],
+                                               "the cope leaves no web below the flange", "N")]
+                ratio = C.tee_shear_stress_ratio(bm.bf, bm.tf, bm.tw, dw)
+                shape, ratio_txt = "coped at one flange: stem Aw", f"{ratio:.2f}"
+            else:
+                dw, ratio, ratio_txt = h, C.RECT_SHEAR_STRESS_RATIO, "1.5"
+                shape = "coped, flange unknown: Aw" if one_flange else "double coped: Aw"
+            Aw = dw * bm.tw
+            cap_y = f["phi"]["member"] * C.Vv_nonuniform(C.Vw_shear(bm.fy, Aw), ratio)
+            gross_note = f"{shape} = {dw:g} × {bm.tw:g} = {Aw:.0f} mm², f*vm/f*va = {ratio_txt} (cl. 5.11.3)"
         Anv = (h - plate.rows * dh) * bm.tw
         cap_r = f["phi"]["block_shear"] * 0.6 * bm.fu * Anv
         if cap_y <= cap_r:

@@ -120,14 +120,11 @@ def tee_shear_stress_ratio(bf: float, tf: float, tw: float, h_stem: float) -> fl
     elastic bending shear: f*vm = V Q / (I tw) at the centroid, f*va = V / (h_stem tw), so the ratio
     is Q h_stem / I (dimensionless; AS 4100 cl. 5.11.3 as used in ASI Handbook 1 (2007) Ch 6.5).
     Dimensions in mm; ``h_stem`` measured from the flange's inner face."""
-    A1, A2 = bf * tf, tw * h_stem
-    y1, y2 = tf / 2.0, tf + h_stem / 2.0
-    yc = (A1 * y1 + A2 * y2) / (A1 + A2)
-    I = bf * tf**3 / 12.0 + A1 * (yc - y1) ** 2 + tw * h_stem**3 / 12.0 + A2 * (y2 - yc) ** 2
+    yc, I = _tee_centroid_inertia(bf, tf, tw, h_stem)
     if yc >= tf:  # the centroid lies in the stem: the first moment of the stem below it
         Q = tw * (tf + h_stem - yc) ** 2 / 2.0
     else:  # in the flange: everything beyond the centroid, i.e. the stem and part of the flange
-        Q = A2 * (y2 - yc) + bf * (tf - yc) ** 2 / 2.0
+        Q = tw * h_stem * (tf + h_stem / 2.0 - yc) + bf * (tf - yc) ** 2 / 2.0
     return Q * h_stem / I
 
 
@@ -180,10 +177,15 @@ def tee_Z_min(bf: float, tf: float, tw: float, h_stem: float) -> tuple[float, fl
     """Smaller elastic section modulus (mm³) and the distance from the flange's outer face to the
     centroid (mm) of a tee made of a flange bf × tf and a stem tw × h_stem (h_stem measured from the
     flange's inner face) — the remaining section of a beam coped at one flange."""
-    A1, A2 = bf * tf, tw * h_stem
-    y1, y2 = tf / 2.0, tf + h_stem / 2.0
-    A = A1 + A2
-    yc = (A1 * y1 + A2 * y2) / A
-    I = bf * tf**3 / 12.0 + A1 * (yc - y1) ** 2 + tw * h_stem**3 / 12.0 + A2 * (y2 - yc) ** 2
+    yc, I = _tee_centroid_inertia(bf, tf, tw, h_stem)
     c = max(yc, tf + h_stem - yc)
     return I / c, yc
+
+
+def _tee_centroid_inertia(bf: float, tf: float, tw: float, h_stem: float) -> tuple[float, float]:
+    """Centroid (mm from the flange's outer face) and second moment of area about it (mm⁴) of a tee:
+    flange bf × tf, stem tw × h_stem below the flange's inner face."""
+    A1, A2 = bf * tf, tw * h_stem
+    y1, y2 = tf / 2.0, tf + h_stem / 2.0
+    yc = (A1 * y1 + A2 * y2) / (A1 + A2)
+    return yc, bf * tf**3 / 12.0 + A1 * (yc - y1) ** 2 + tw * h_stem**3 / 12.0 + A2 * (y2 - yc) ** 2
