@@ -26,6 +26,7 @@ from typing import Any, Iterator, Mapping
 
 from engine.cautions import CAUTION
 from engine.evaluate import ISSUE_STATUSES
+from engine.memo import BoundedMemo
 
 __all__ = ["render_report", "report_parts", "issue_joints"]
 
@@ -180,22 +181,17 @@ _ND_HEAD = (
 )
 
 
-class _Escaped(dict):
+def _escaped() -> BoundedMemo:
     """html.escape of texts that repeat from row to row (sections, storeys, kinds, sources,
-    reasons), each escaped once; bounded, so unique texts do not pile up."""
-
-    def __missing__(self, text: str) -> str:
-        value = escape(text)
-        if len(self) < 65536:
-            self[text] = value
-        return value
+    reasons), each escaped once."""
+    return BoundedMemo(escape, limit=65536)
 
 
 _NO_CONNECTION = "no connection modelled or scheduled"
 
 
-def _needs_design_row(j: Mapping[str, Any], esc: _Escaped | None = None) -> str:
-    esc = _Escaped() if esc is None else esc
+def _needs_design_row(j: Mapping[str, Any], esc: BoundedMemo | None = None) -> str:
+    esc = _escaped() if esc is None else esc
     d = j.get("demand")
     shear = "–" if d is None or d.get("V_kN") is None else _fmt(d["V_kN"], 1)
     src = "" if d is None else f"<br><small>{esc[d['source']]}</small>"
@@ -273,7 +269,7 @@ def report_parts(
         yield "".join(batch) + "</section>"
         if needs_design:
             yield _ND_HEAD
-            esc = _Escaped()
+            esc = _escaped()
             for i in range(0, len(needs_design), 1000):
                 yield "".join(_needs_design_row(j, esc) for j in needs_design[i:i + 1000])
             yield "</tbody></table>"
