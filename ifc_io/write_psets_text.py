@@ -28,7 +28,8 @@ from typing import Any, Iterable, Iterator, Mapping
 import ifcopenshell
 
 from engine.errors import OutputError
-from ifc_io.write_psets import PSET_NAMES, _guid, _owner_history, _properties, iter_joint_beams, remove_all_joint_psets
+from engine.memo import BoundedMemo
+from ifc_io.write_psets import _guid, _owner_history, _properties, iter_joint_beams, remove_all_joint_psets
 
 __all__ = ["step_string", "step_real", "iter_joint_pset_lines", "prepare_model_copy",
            "append_joint_psets", "write_model_with_psets"]
@@ -76,21 +77,6 @@ def _typed(model_schema: str, ifc_type: str, value: Any) -> str:
     return f"{name}({step_string(str(value))})"
 
 
-class _Memo(dict):
-    """Text already encoded (names and the values that repeat from joint to joint: statuses, kinds,
-    sources, the code, the tool and the date); a bounded cache, so unique texts do not pile up."""
-
-    def __init__(self, fn, limit: int = 4096) -> None:  # noqa: D107
-        super().__init__()
-        self.fn, self.limit = fn, limit
-
-    def __missing__(self, key):
-        value = self.fn(*key)
-        if len(self) < self.limit:
-            self[key] = value
-        return value
-
-
 def iter_joint_pset_lines(
     model: ifcopenshell.file,
     doc: Mapping[str, Any],
@@ -106,10 +92,12 @@ def iter_joint_pset_lines(
     other; ``counter[0]`` counts the sets."""
     owner = f"#{owner_id}" if owner_id else "$"
     schema = model.schema
-    typed = _Memo(lambda t, v: _typed(schema, t, v))
-    prefix = _Memo(lambda name: f"=IFCPROPERTYSINGLEVALUE({step_string(name)},$,")
-    names = _Memo(lambda v: step_string(v))
-    reason = _Memo(lambda r: step_string(r)[1:-1], limit=65536)  # encoded without the quotes
+    # text already encoded: names, and the values that repeat from joint to joint (statuses, kinds,
+    # sources, the code, the tool, the date, the reasons)
+    typed = BoundedMemo(lambda tv: _typed(schema, *tv))
+    prefix = BoundedMemo(lambda name: f"=IFCPROPERTYSINGLEVALUE({step_string(name)},$,")
+    names = BoundedMemo(step_string)
+    reason = BoundedMemo(lambda r: step_string(r)[1:-1], limit=65536)  # encoded without the quotes
     n = first_id
     for joint, beam, pset_name in iter_joint_beams(model, doc, statuses):
         first = n
@@ -117,18 +105,18 @@ def iter_joint_pset_lines(
             if name == "StiffnessReasons":
                 # STEP encoding works character by character, so the joined text encodes as the
                 # join of its encoded parts; the reasons repeat from joint to joint
-                enc = "IFCTEXT('" + "; ".join(reason[(r,)] for r in joint["stiffness_reasons"]) + "')"
+                enc = "IFCTEXT('" + "; ".join(reason[r] for r in joint["stiffness_reasons"]) + "')"
             elif ifc_type in ("IfcText", "IfcForceMeasure", "IfcRatioMeasure"):
                 enc = _typed(schema, ifc_type, value)
             else:
                 enc = typed[(ifc_type, value)]
-            yield f"#{n}{prefix[(name,)]}{enc},$);"
+            yield f"#{n}{prefix[name]}{enc},$);"
             n += 1
         pset_id = n
         gid = beam.GlobalId
         yield (
             f"#{pset_id}=IFCPROPERTYSET({step_string(_guid(gid, pset_name))},{owner},"
-            f"{names[(pset_name,)]},{names[(_DESCRIPTION,)]},({','.join(f'#{i}' for i in range(first, pset_id))}));"
+            f"{names[pset_name]},{names[_DESCRIPTION]},({','.join(f'#{i}' for i in range(first, pset_id))}));"
         )
         n += 1
         yield (
@@ -149,8 +137,7 @@ def prepare_model_copy(model: ifcopenshell.file) -> tuple[int, int | None]:
     longer a joint, or no longer checked, keeps no stale result — and IFC2X3's owner history is added
     if the model has none. Returns the first free entity id and the owner history's id (``None`` in
     IFC4 and later)."""
-    if any(p.Name in PSET_NAMES for p in model.by_type("IfcPropertySet")):
-        remove_all_joint_psets(model)
+    remove_all_joint_psets(model)
     owner = _owner_history(model)
     return int(model.get_max_id()) + 1, (owner.id() if owner is not None else None)
 
