@@ -35,12 +35,7 @@ def refuse_input_overwrite(target: str | os.PathLike[str], inputs: list[str | os
 def write_atomic_with(target: str | os.PathLike[str], writer: Callable[[str], None]) -> Path:
     """Call ``writer(tmp_path)`` to produce the file, then rename it to ``target`` atomically."""
     target = Path(target)
-    folder = target.parent
-    try:
-        fd, tmp = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".part", dir=folder)
-    except OSError as exc:
-        raise OutputError(f"cannot write in {folder}: {exc.strerror or exc}") from None
-    os.close(fd)
+    tmp = new_temp(target)
     try:
         writer(tmp)
         os.replace(tmp, target)
@@ -54,15 +49,7 @@ def write_atomic_with(target: str | os.PathLike[str], writer: Callable[[str], No
 
 
 def _bytes_writer(data: bytes | str) -> Callable[[str], None]:
-    payload = data.encode("utf-8") if isinstance(data, str) else data
-
-    def _write(tmp: str) -> None:
-        with open(tmp, "wb") as fh:
-            fh.write(payload)
-            fh.flush()
-            os.fsync(fh.fileno())
-
-    return _write
+    return parts_writer((data,))
 
 
 def parts_writer(parts: Iterable[bytes | str]) -> Callable[[str], None]:
@@ -128,10 +115,6 @@ def write_temps(
     bytes or text, or a ``writer(tmp_path)``) and return the ``(temporary, target)`` pairs for
     :func:`commit_all`. If anything fails, the temporary files are removed and the error is an
     :class:`OutputError` (an error raised by a writer itself passes through)."""
-    for t, _ in outputs:
-        if Path(t).is_dir():
-            raise OutputError(f"cannot write {t}: a folder of that name is in the way; remove it or choose "
-                              f"another --out folder")
     pairs: list[tuple[str, Path]] = []
     try:
         for t, what in outputs:
