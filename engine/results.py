@@ -155,7 +155,7 @@ def results_document(
             "status": res.status,
             "missing": list(res.missing),
             "note": res.note,
-            "baseline": marks.get(j.id) if baseline is not None else None,
+            "baseline": marks.get(j.id),
         }
         if baseline_was and entry["baseline"] == "resolved":
             entry["baseline_was"] = baseline_was.get(j.id)

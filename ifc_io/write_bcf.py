@@ -64,7 +64,7 @@ def topic_guid(joint_id: str) -> str:
 
 def storey_topic_guid(storey: str) -> str:
     """The BCF topic GUID of a storey's group of joints that need design (stable across runs)."""
-    return str(uuid.uuid5(_NS, f"topic|needs-design-storey|{storey}"))
+    return topic_guid(f"needs-design-storey|{storey}")
 
 
 def _guid(joint_id: str, what: str) -> str:
@@ -236,7 +236,8 @@ def _group_topic(storey: str, joints: Sequence[Mapping[str, Any]], doc: Mapping[
             + (f"; and {n - GROUP_LISTED} more" if n > GROUP_LISTED else "")
             + ". Every joint is listed in issues.html and results.json. "
             "joint-audit is an aid to a competent engineer; check this result.")
-    markup = _topic_xml(guid, _guid(guid, "viewpoint"), _guid(guid, "comment"), title, _group_labels(storey),
+    vp_guid = _guid(guid, "viewpoint")
+    markup = _topic_xml(guid, vp_guid, _guid(guid, "comment"), title, _group_labels(storey),
                         description, doc, version, date, project_guid, closed, False)
     beams = list(dict.fromkeys(j["beam"] for j in joints))
     locs = [j.get("location_mm") or (0.0, 0.0, 0.0) for j in joints]
@@ -244,7 +245,7 @@ def _group_topic(storey: str, joints: Sequence[Mapping[str, Any]], doc: Mapping[
     hi = [max(p[i] for p in locs) for i in range(3)]
     centre = [(a + b) / 2.0 for a, b in zip(lo, hi)]
     extent_m = max(b - a for a, b in zip(lo, hi)) / 1000.0
-    return markup, _visinfo_xml(_guid(guid, "viewpoint"), beams, _camera(centre, 4.0 + extent_m), version)
+    return markup, _visinfo_xml(vp_guid, beams, _camera(centre, 4.0 + extent_m), version)
 
 
 def _version(version: str) -> bytes:
