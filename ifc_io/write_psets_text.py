@@ -29,7 +29,8 @@ import ifcopenshell
 
 from engine.errors import OutputError
 from engine.memo import BoundedMemo
-from ifc_io.write_psets import _guid, _owner_history, _properties, iter_joint_beams, remove_all_joint_psets
+from ifc_io.write_psets import (PSET_BY_END, _guid, _owner_history, _properties, iter_joint_beams,
+                                remove_all_joint_psets)
 
 __all__ = ["step_string", "step_real", "iter_joint_pset_lines", "prepare_model_copy",
            "append_joint_psets", "write_model_with_psets"]
@@ -90,6 +91,25 @@ def iter_joint_pset_lines(
     """STEP lines of one property set per joint of ``doc`` whose status is in ``statuses`` (as
     :func:`ifc_io.write_psets.write_joint_psets` writes them), ids from ``first_id``, one after the
     other; ``counter[0]`` counts the sets."""
+    for block in _pset_blocks(model, doc, first_id, n_per_force_unit=n_per_force_unit, statuses=statuses,
+                              owner_id=owner_id, counter=counter, sep="\n"):
+        yield from block.splitlines()
+
+
+def _pset_blocks(
+    model: ifcopenshell.file,
+    doc: Mapping[str, Any],
+    first_id: int,
+    *,
+    n_per_force_unit: float,
+    statuses: Iterable[str],
+    owner_id: int | None,
+    counter: list[int] | None,
+    sep: str,
+) -> Iterator[str]:
+    """The lines of :func:`iter_joint_pset_lines`, one text per property set (its properties, the
+    set and its relationship, each line ended by ``sep``): a large model has half a million lines,
+    which one at a time cost more than formatting them."""
     owner = f"#{owner_id}" if owner_id else "$"
     schema = model.schema
     # text already encoded: names, and the values that repeat from joint to joint (statuses, kinds,
@@ -98,34 +118,44 @@ def iter_joint_pset_lines(
     prefix = BoundedMemo(lambda name: f"=IFCPROPERTYSINGLEVALUE({step_string(name)},$,")
     names = BoundedMemo(step_string)
     reason = BoundedMemo(lambda r: step_string(r)[1:-1], limit=65536)  # encoded without the quotes
+    described = {name: f"{names[name]},{names[_DESCRIPTION]},(" for name in PSET_BY_END.values()}
+    end_line = ",$);" + sep
+    # a whole line but its number, for the (name, type, value) that repeat
+    tail = BoundedMemo(lambda ntv: f"{prefix[ntv[0]]}{typed[ntv[1:]]}{end_line}")
     n = first_id
     for joint, beam, pset_name in iter_joint_beams(model, doc, statuses):
         first = n
+        parts: list[str] = []
+        add = parts.append
         for name, ifc_type, value in _properties(joint, doc, n_per_force_unit):
             if name == "StiffnessReasons":
                 # STEP encoding works character by character, so the joined text encodes as the
                 # join of its encoded parts; the reasons repeat from joint to joint
-                enc = "IFCTEXT('" + "; ".join(reason[r] for r in joint["stiffness_reasons"]) + "')"
-            elif ifc_type in ("IfcText", "IfcForceMeasure", "IfcRatioMeasure"):
-                enc = _typed(schema, ifc_type, value)
+                add(f"#{n}{prefix[name]}IFCTEXT('{'; '.join([reason[r] for r in joint['stiffness_reasons']])}')"
+                    f"{end_line}")
+            elif ifc_type in _UNIQUE_TYPES:
+                add(f"#{n}{prefix[name]}{_UNIQUE_TYPES[ifc_type](value)}{end_line}")
             else:
-                enc = typed[(ifc_type, value)]
-            yield f"#{n}{prefix[name]}{enc},$);"
+                add(f"#{n}{tail[(name, ifc_type, value)]}")
             n += 1
-        pset_id = n
-        gid = beam.GlobalId
-        yield (
-            f"#{pset_id}=IFCPROPERTYSET({step_string(_guid(gid, pset_name))},{owner},"
-            f"{names[pset_name]},{names[_DESCRIPTION]},({','.join(f'#{i}' for i in range(first, pset_id))}));"
-        )
-        n += 1
-        yield (
-            f"#{n}=IFCRELDEFINESBYPROPERTIES({step_string(_guid(gid, pset_name, 'rel'))},{owner},$,$,"
-            f"(#{beam.id()}),#{pset_id});"
-        )
-        n += 1
+        gid = joint["beam"]  # the beam's GlobalId: iter_joint_beams found the beam by it
+        members = ",".join([f"#{i}" for i in range(first, n)])
+        add(f"#{n}=IFCPROPERTYSET({step_string(_guid(gid, pset_name))},{owner},{described[pset_name]}{members}));{sep}"
+            f"#{n + 1}=IFCRELDEFINESBYPROPERTIES({step_string(_guid(gid, pset_name, 'rel'))},{owner},$,$,"
+            f"(#{beam.id()}),#{n});{sep}")
+        n += 2
         if counter is not None:
             counter[0] += 1
+        yield "".join(parts)
+
+
+# values that differ from joint to joint, not worth remembering: their encoders (as _typed)
+_UNIQUE_TYPES: dict[str, Any] = {
+    "IfcText": lambda v: f"IFCTEXT({step_string(str(v))})",
+    "IfcIdentifier": lambda v: f"IFCIDENTIFIER({step_string(str(v))})",
+    "IfcForceMeasure": lambda v: f"IFCFORCEMEASURE({step_real(float(v))})",
+    "IfcRatioMeasure": lambda v: f"IFCRATIOMEASURE({step_real(float(v))})",
+}
 
 
 _TAIL = 1 << 16  # the end of the DATA section is looked for in the file's last 64 KiB
@@ -170,15 +200,15 @@ def append_joint_psets(
         fh.truncate()
         counter = [0]
         batch: list[str] = []
-        sep = nl.decode("ascii")
-        for line in iter_joint_pset_lines(model, doc, first_id, n_per_force_unit=n_per_force_unit,
-                                          owner_id=owner_id, counter=counter):
-            batch.append(line)
-            if len(batch) >= 20000:
-                fh.write((sep.join(batch) + sep).encode("ascii"))
+        for block in _pset_blocks(model, doc, first_id, n_per_force_unit=n_per_force_unit,
+                                  statuses=("pass", "fail", "needs-design", "incomplete"), owner_id=owner_id,
+                                  counter=counter, sep=nl.decode("ascii")):
+            batch.append(block)
+            if len(batch) >= 2000:
+                fh.write("".join(batch).encode("ascii"))
                 batch = []
         if batch:
-            fh.write((sep.join(batch) + sep).encode("ascii"))
+            fh.write("".join(batch).encode("ascii"))
         fh.write(closing)
     return counter[0]
 
