@@ -228,9 +228,16 @@ def classify_batch(kinds: Sequence[str], support_labels: Sequence[str],
     """
     if policy not in POLICIES:
         raise ConfigError(f"[support] policy {policy!r} is not one of {', '.join(POLICIES)}")
-    return [_policy(*_verdict(*row), policy)
-            for row in zip(kinds, support_labels, continuous, partner_labels, partner_similar,
-                           span_ratios, orientation_known, support_is_i, ratios)]
+    # one string object per distinct reason text, shared from the start: most texts recur from joint
+    # to joint, and holding every joint's own copies until the caller shares them doubled the peak
+    texts: dict[str, str] = {}
+    share = texts.setdefault
+    out = []
+    for row in zip(kinds, support_labels, continuous, partner_labels, partner_similar, span_ratios,
+                   orientation_known, support_is_i, ratios):
+        level, reasons = _policy(*_verdict(*row), policy)
+        out.append((level, tuple([share(r, r) for r in reasons])))
+    return out
 
 
 def _verdict(k: str, support_label: str, continuous: bool | None, partner_label: str | None,
