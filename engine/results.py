@@ -111,6 +111,17 @@ def results_document(
         return who[gid]
 
     marks = baseline or {}
+    rounded: dict[float | None, float | None] = {}  # _r of the values met so far: most recur
+
+    def _rv(x: float | None) -> float | None:
+        try:
+            return rounded[x]
+        except KeyError:
+            v = rounded[x] = _r(x)
+            return v
+        except TypeError:  # not a number: _r says what
+            return _r(x)
+
     for res in sorted(results, key=lambda r: r.joint.id):
         j = res.joint
         summary[res.status] += 1
@@ -128,14 +139,14 @@ def results_document(
             "support_name": support_label,
             "support_section": support_section,
             "storey": beam_storey,
-            "location_mm": [_r(v) for v in g.location],
+            "location_mm": [_rv(v) for v in g.location],
             "kind": j.kind,
             "stiffness": j.stiffness,
             "stiffness_reasons": list(j.reasons),
             "geometry": {
-                "angle_deg": _r(g.angle_deg),
-                "gap_mm": _r(g.gap),
-                "tos_diff_mm": _r(g.tos_diff),
+                "angle_deg": _rv(g.angle_deg),
+                "gap_mm": _rv(g.gap),
+                "tos_diff_mm": _rv(g.tos_diff),
                 "copes": [{"where": c.where, "depth": c.depth, "length": c.length} for c in g.copes],
                 "support_continuous": g.support_continuous,
                 "back_to_back": g.back_to_back,
@@ -143,8 +154,8 @@ def results_document(
             "demand": None
             if d is None
             else {
-                "V_kN": _r(d.V * 1e-3),
-                "N_kN": _r(d.N * 1e-3),
+                "V_kN": _rv(d.V * 1e-3),
+                "N_kN": _rv(d.N * 1e-3),
                 "source": d.source,
                 "combination": d.combination,
             },
