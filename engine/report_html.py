@@ -21,6 +21,7 @@ precedence.
 
 from __future__ import annotations
 
+import re
 from html import escape
 from typing import Any, Iterator, Mapping
 
@@ -190,26 +191,38 @@ def _escaped() -> BoundedMemo:
 _NO_CONNECTION = "no connection modelled or scheduled"
 
 
+_MARKUP = re.compile(r"[&<>\"']")
+
+
+def _escape_once(text: str) -> str:
+    """html.escape (quotes too) of a text met once (ids, names): most have nothing to escape, and
+    finding that out is cheaper than escaping."""
+    return escape(text) if _MARKUP.search(text) else text
+
+
+def _cope_text(c: Mapping[str, Any]) -> str:
+    return f"{escape(str(c.get('where')))} cope {_fmt(c.get('depth'), 0)} x {_fmt(c.get('length'), 0)} mm"
+
+
 def _needs_design_row(j: Mapping[str, Any], esc: BoundedMemo | None = None) -> str:
     esc = _escaped() if esc is None else esc
     d = j.get("demand")
     shear = "–" if d is None or d.get("V_kN") is None else _fmt(d["V_kN"], 1)
     src = "" if d is None else f"<br><small>{esc[d['source']]}</small>"
     copes = (j.get("geometry") or {}).get("copes") or []
-    cope_txt = "; ".join(f"{escape(str(c.get('where')))} cope {_fmt(c.get('depth'), 0)} x {_fmt(c.get('length'), 0)} mm"
-                         for c in copes)
+    cope_txt = "; ".join([_cope_text(c) for c in copes])
     raw_note = j.get("note") or ""
     if raw_note == _NO_CONNECTION:  # what the table's heading already says
         raw_note = ""
-    note = "; ".join(x for x in (cope_txt, esc[raw_note]) if x)
+    note = "; ".join([x for x in (cope_txt, esc[raw_note]) if x])
     baseline = f' <span class="tag">{esc[j["baseline"]]}</span>' if j.get("baseline") else ""
-    reasons = "; ".join(esc[r] for r in j.get("stiffness_reasons") or [])  # escaping commutes with joining
-    jid = escape(j["id"])  # escape() quotes by default, so the same text serves attributes
+    reasons = "; ".join([esc[r] for r in j.get("stiffness_reasons") or []])  # escaping commutes with joining
+    jid = _escape_once(j["id"])  # quotes escaped too, so the same text serves attributes
     return (
         f'<tr class="issue" id="{jid}" data-status="needs-design" '
         f'data-storey="{esc[j.get("storey") or ""]}" data-kind="{esc[j["kind"]]}" data-util="">'
         f'<td><code>{jid}</code>{baseline}</td>'
-        f'<td>{esc[j["end"]]} of {escape(j.get("beam_name") or "")} {esc[j.get("beam_section") or ""]}<br><code>{escape(j["beam"])}</code></td>'
+        f'<td>{esc[j["end"]]} of {_escape_once(j.get("beam_name") or "")} {esc[j.get("beam_section") or ""]}<br><code>{_escape_once(j["beam"])}</code></td>'
         f'<td>{esc[j.get("support_name") or ""]} {esc[j.get("support_section") or ""]}<br><code>{esc[j.get("support") or "none"]}</code></td>'
         f'<td>{esc[j["kind"]]}, {esc[j["stiffness"]]}<br><small class="why">{reasons}</small></td>'
         f'<td>{esc[j.get("storey") or "–"]}</td><td class="num">{shear}{src}</td><td>{note}</td></tr>'
