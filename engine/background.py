@@ -1,4 +1,5 @@
-"""Output work in a child process while the main process goes on (POSIX ``fork``).
+"""Work in a child process while the main process goes on (POSIX ``fork``): the outputs, and half
+of the reading of a large model (``ifc_io.read_members``, whose child returns its members).
 
 Writing the audited copy of a large model is mostly IfcOpenShell's own serialisation, which holds the
 interpreter for its whole run; the rest of the audit (joints, checks, the issue list, the BCF file,
@@ -16,6 +17,7 @@ from __future__ import annotations
 
 import gc
 import os
+import pickle
 import signal
 import sys
 from typing import Callable
@@ -45,15 +47,18 @@ class BackgroundTask:
     """Run ``fn()`` in a forked child process (see the module docstring), or at once in this
     process where forking is not used. :meth:`join` waits for it and raises what it raised:
     :class:`OutputError` for an error a user can act on, ``RuntimeError`` for a bug; :meth:`cancel`
-    stops it."""
+    stops it. With ``returns=True`` the value ``fn()`` returns (pickled, so plain data) comes back
+    from :meth:`join`; otherwise join returns ``None``."""
 
-    def __init__(self, fn: Callable[[], object], *, fork: bool | None = None) -> None:
+    def __init__(self, fn: Callable[[], object], *, fork: bool | None = None, returns: bool = False) -> None:
         self._pid: int | None = None
         self._fd: int | None = None
         self._error: BaseException | None = None
+        self._value: object = None
         if not (can_fork() if fork is None else fork):
             try:
-                fn()
+                value = fn()
+                self._value = value if returns else None
             except BaseException as exc:  # kept, and raised by join() as the forked path would
                 self._error = exc
             return
@@ -70,7 +75,11 @@ class BackgroundTask:
                 # shares with the main process and so copies their pages (the child is short-lived
                 # and frees everything when it ends)
                 gc.disable()
-                fn()
+                value = fn()
+                if returns:  # pickled whole first: a value that cannot be pickled is an error, not half a report
+                    data = memoryview(b"R" + pickle.dumps(value, protocol=pickle.HIGHEST_PROTOCOL))
+                    while data:
+                        data = data[os.write(write_fd, data):]
             except BaseException as exc:
                 code = 1
                 try:
@@ -83,15 +92,16 @@ class BackgroundTask:
         os.close(write_fd)
         self._pid, self._fd = pid, read_fd
 
-    def join(self) -> None:
-        """Wait for the task; raise what it raised."""
+    def join(self) -> object:
+        """Wait for the task; raise what it raised, or return what it returned (``returns=True``)."""
         if self._pid is None:
             if self._error is not None:
                 err, self._error = self._error, None
                 if isinstance(err, OSError):  # as the forked path reports it
                     raise OutputError(_describe(err)[1]) from err
                 raise err
-            return
+            value, self._value = self._value, None
+            return value
         chunks = []
         while True:
             block = os.read(self._fd, 65536)
@@ -102,15 +112,35 @@ class BackgroundTask:
         _, status = os.waitpid(self._pid, 0)
         self._pid = self._fd = None
         code = os.waitstatus_to_exitcode(status)
-        if code == 0:
-            return
         report = b"".join(chunks)
+        if code == 0:
+            return pickle.loads(report[1:]) if report[:1] == b"R" else None
         kind, message = report[:1], report[1:].decode("utf-8", "replace")
         if kind == b"E":
             raise OutputError(message)
         if kind == b"X":
             raise RuntimeError(f"in the background writer: {message}")
         raise RuntimeError(f"the background writer stopped with status {code}")
+
+    def wait_from_sibling(self) -> None:
+        """In another child forked after this task's (which cannot reap it): wait until this task's
+        process has ended and raise the error it reported, if any. The main process must still
+        :meth:`join` this task: only it learns the exit status (a child killed by a signal reports
+        nothing, and is caught there). Where nothing was forked this is :meth:`join`."""
+        if self._pid is None:
+            self.join()
+            return
+        chunks = []
+        while True:
+            block = os.read(self._fd, 65536)
+            if not block:
+                break
+            chunks.append(block)
+        report = b"".join(chunks)
+        if report[:1] == b"E":
+            raise OutputError(report[1:].decode("utf-8", "replace"))
+        if report[:1] == b"X":
+            raise RuntimeError(f"in the background writer: {report[1:].decode('utf-8', 'replace')}")
 
     def cancel(self) -> None:
         """Stop the task if it is still running (nothing is raised)."""

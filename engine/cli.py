@@ -235,16 +235,22 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
         first_id, owner_id = prepare_model_copy(model)
         ifc_tmp = new_temp(targets["ifc"])
         temps.append((ifc_tmp, targets["ifc"]))
-        tasks.append(BackgroundTask(lambda: model.write(ifc_tmp)))
+        # the copy of the model is written by a child once the model has been read (a large model
+        # is read by two processes: engine.background, ifc_io.read_members) while the audit goes on
         bar = _ProgressBar()
         outcome = audit_model(model, code=code, config_file=config_file, schedules=schedules, baseline=baseline,
-                              file_label=Path(model_path).name, progress=bar, design=design)
+                              file_label=Path(model_path).name, progress=bar, design=design,
+                              after_read=lambda: tasks.append(BackgroundTask(lambda: model.write(ifc_tmp))))
         bar.done()
         doc = outcome.doc
-        tasks.pop().join()
-        # the property sets are added to the copy in a child while this process writes the rest
-        tasks.append(BackgroundTask(lambda: append_joint_psets(model, doc, ifc_tmp, first_id, owner_id,
-                                                               n_per_force_unit=outcome.frame.n_per_force_unit)))
+        copy_task = tasks[0]
+
+        def _add_psets() -> None:  # in a child: once the copy is written, the property sets added to it
+            copy_task.wait_from_sibling()
+            append_joint_psets(model, doc, ifc_tmp, first_id, owner_id, n_per_force_unit=outcome.frame.n_per_force_unit)
+
+        # started now, so the main process goes on with the other outputs while the copy is finished
+        tasks.append(BackgroundTask(_add_psets))
         drawings, symbols = issue_drawings(outcome.results, outcome.members)
         html = parts_writer(report_parts(doc, drawings, symbols))
         # BCF snapshots of the connections that exist (a joint that needs design has nothing to show)
@@ -262,7 +268,8 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
             (targets["report"], html),
             (targets["bcf"], bcf),
         ])
-        tasks.pop().join()
+        tasks.pop().join()  # the property sets (it reports the copy's error, with its message, first)
+        tasks.pop().join()  # the copy: its exit status
         # renamed in the order results, schedule, report, BCF, and the model copy last, as before
         by_target = {str(t): (tmp, t) for tmp, t in temps}
         commit_all([by_target[str(targets[k])] for k in ("results", "schedule", "report", "bcf", "ifc")])

@@ -18,7 +18,7 @@ from __future__ import annotations
 import dataclasses
 from datetime import datetime, timezone
 from pathlib import Path
-from typing import Any, Mapping, Sequence
+from typing import Any, Callable, Mapping, Sequence
 
 import ifcopenshell
 
@@ -123,11 +123,13 @@ def audit_model(
     run_date: str | None = None,
     file_label: str = "",
     progress: Progress | None = None,
+    after_read: Callable[[], object] | None = None,
 ) -> AuditOutcome:
     """Audit an open model. ``config`` (a dict of overrides) goes over ``config_file`` over the
     defaults; ``code`` over both. With ``write_psets`` the results are written into ``model`` as
     property sets. Returns the :class:`engine.audit.AuditOutcome` (results, results document,
-    joints graph, warnings)."""
+    joints graph, warnings). ``after_read`` is called once the model has been read, before the
+    audit proper (the command line starts writing the model's copy there)."""
     import rules
     from rules.catalog import lookup_steel
 
@@ -142,6 +144,8 @@ def audit_model(
         kwargs["design_space"] = design_space_for(cfg, lookup_steel)
     with cycle_collection_paused():  # restored after, whatever the host program had (engine.gc_pause)
         frame = read_frame_with_connections(model, cfg, label)
+        if after_read is not None:
+            after_read()
         outcome = run_audit(
             frame, cfg, ruleset, steel_lookup=lookup_steel, demand_schedule=demand_schedule,
             connection_schedule=connection_schedule, baseline=baseline, run_date=run_date or now_iso(), **kwargs,

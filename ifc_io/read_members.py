@@ -23,6 +23,7 @@ from __future__ import annotations
 
 import math
 
+from engine.background import BackgroundTask, can_fork
 from ifc_io.read_relations import elements_once
 from engine.model import Member, Section
 from ifc_io.read_axes import member_axis, read_geometry, tessellated_axis
@@ -196,11 +197,40 @@ def _finite_within(values) -> bool:
     return True
 
 
+PARALLEL_MIN = 4000  # elements: below this, a second process costs more than it saves
+
+
 def read_members(ctx, steel_resolver, properties: tuple[str, ...] = ()) -> list[Member]:
-    """Every IfcBeam, IfcColumn and IfcMember with a usable axis (warnings go to ``ctx``)."""
+    """Every IfcBeam, IfcColumn and IfcMember with a usable axis (warnings go to ``ctx``).
+
+    On a large model where :mod:`engine.background` forks, the second half of the elements is read
+    by a child process while this one reads the first: the same members and warnings in the same
+    order as one process reading them all (if the child fails, this process reads its half too)."""
+    elements = list(elements_once(ctx.index, ("IfcBeam", "IfcColumn", "IfcMember")))
+    if len(elements) < PARALLEL_MIN or not can_fork():
+        return _read_some(elements, ctx, steel_resolver, properties)
+    cut = len(elements) // 2
+    before = len(ctx.warnings)
+
+    def _second_half() -> tuple[list[Member], list]:
+        found = _read_some(elements[cut:], ctx, steel_resolver, properties)
+        return found, ctx.warnings[before:]
+
+    task = BackgroundTask(_second_half, returns=True)
+    members = _read_some(elements[:cut], ctx, steel_resolver, properties)
+    try:
+        more, warned = task.join()
+    except Exception:  # the child could not finish (out of memory, killed): read its half here
+        more = _read_some(elements[cut:], ctx, steel_resolver, properties)
+    else:
+        ctx.warnings.extend(warned)
+    return members + more
+
+
+def _read_some(elements: list, ctx, steel_resolver, properties: tuple[str, ...]) -> list[Member]:
     members: list[Member] = []
     cache = _MemberCaches(ctx)
-    for el in elements_once(ctx.index, ("IfcBeam", "IfcColumn", "IfcMember")):
+    for el in elements:
         try:
             m = _read_member(el, ctx, cache, steel_resolver, properties)
         except Exception as exc:  # one bad element never stops the read
