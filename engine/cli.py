@@ -201,10 +201,11 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
                needs_design_topics: str = "per-storey") -> int:
     import ifc_io
     from ifc_io.library import audit_model
+    from ifc_io.open import parse_problems
     from ifc_io.write_bcf import bcf_archive
-    from ifc_io.write_psets_text import append_joint_psets, prepare_model_copy
+    from ifc_io.write_psets_text import append_joint_psets, copy_input_verbatim, prepare_model_copy
 
-    from engine.atomic import commit_all, new_temp, parts_writer, refuse_input_overwrite, unlink_quietly, write_temps
+    from engine.atomic import commit_all, new_temp, parts_writer, refuse_input_overwrite, unlink_quietly, write_prepared
     from engine.background import BackgroundTask
     from engine.raster import to_png
     from engine.report_drawings import elevation_for, issue_drawings
@@ -212,6 +213,10 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
     from engine.results import read_baseline, schedule_csv
 
     # the model and the baseline are read before anything is written
+    try:
+        opened = os.stat(model_path)  # to tell later that the file is still the one opened
+    except OSError:
+        opened = None  # open_model says what is wrong with the path
     model = ifc_io.open_model(model_path)
     baseline = read_baseline(baseline_path) if baseline_path else None
     out_created = not Path(out_dir).exists()
@@ -232,44 +237,60 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
     try:
         for t in targets.values():
             refuse_input_overwrite(t, [model_path] + ([baseline_path] if baseline_path else []) + list(schedules))
-        first_id, owner_id = prepare_model_copy(model)
+        first_id, owner_id, as_read = prepare_model_copy(model)
         ifc_tmp = new_temp(targets["ifc"])
         temps.append((ifc_tmp, targets["ifc"]))
-        # the copy of the model is written by a child once the model has been read (a large model
-        # is read by two processes: engine.background, ifc_io.read_members) while the audit goes on
+        # The copy of the model: the input file's own text when it holds no earlier results and
+        # parsed cleanly (ifc_io.write_psets_text.copy_input_verbatim); else written by a child once
+        # the model has been read (a large model is read by two processes: ifc_io.read_members)
+        # while the audit goes on.
+        verbatim = (as_read and opened is not None and not parse_problems(model)
+                    and copy_input_verbatim(model_path, ifc_tmp, opened))
         bar = _ProgressBar()
         outcome = audit_model(model, code=code, config_file=config_file, schedules=schedules, baseline=baseline,
                               file_label=Path(model_path).name, progress=bar, design=design,
-                              after_read=lambda: tasks.append(BackgroundTask(lambda: model.write(ifc_tmp))))
+                              after_read=None if verbatim else
+                              lambda: tasks.append(BackgroundTask(lambda: model.write(ifc_tmp))))
         bar.done()
-        doc = outcome.doc
-        copy_task = tasks[0]
+        copy_task = tasks[0] if tasks else None
+        n_per_force_unit = outcome.frame.n_per_force_unit
+        # The outputs are written by two children at once, each building the results document
+        # (outcome.doc) for itself: the main process never holds it. Where nothing is forked the
+        # two run here one after the other and the document is built once.
+        csv_tmp = new_temp(targets["schedule"])
+        temps.append((csv_tmp, targets["schedule"]))
 
-        def _add_psets() -> None:  # in a child: once the copy is written, the property sets added to it
-            copy_task.wait_from_sibling()
-            append_joint_psets(model, doc, ifc_tmp, first_id, owner_id, n_per_force_unit=outcome.frame.n_per_force_unit)
+        def _model_and_schedule() -> None:  # once the copy is written, the property sets added to it
+            if copy_task is not None:
+                copy_task.wait_from_sibling()
+            append_joint_psets(model, outcome.doc, ifc_tmp, first_id, owner_id, n_per_force_unit=n_per_force_unit)
+            write_prepared(csv_tmp, targets["schedule"], schedule_csv(outcome.doc))
 
-        # started now, so the main process goes on with the other outputs while the copy is finished
-        tasks.append(BackgroundTask(_add_psets))
-        drawings, symbols = issue_drawings(outcome.results, outcome.members)
-        html = parts_writer(report_parts(doc, drawings, symbols))
-        # BCF snapshots of the connections that exist (a joint that needs design has nothing to show)
-        snapshots = {r.joint.id: to_png(elevation_for(r, outcome.members[r.joint.beam]))
-                     for r in outcome.results if r.joint.id in drawings and r.connection is not None}
-        project = model.by_type("IfcProject")
-        # a damaged file may hold something other than text in the project's GlobalId or Name
-        guid, name = (project[0].GlobalId, project[0].Name) if project else (None, "")
-        bcf = bcf_archive(doc, version=bcf_version, project_guid=guid if isinstance(guid, str) else None,
-                          project_name=name if isinstance(name, str) else "", snapshots=snapshots,
-                          needs_design=needs_design_topics)
-        temps += write_temps([
-            (targets["results"], parts_writer(_results_json(doc))),
-            (targets["schedule"], schedule_csv(doc)),
-            (targets["report"], html),
-            (targets["bcf"], bcf),
-        ])
-        tasks.pop().join()  # the property sets (it reports the copy's error, with its message, first)
-        tasks.pop().join()  # the copy: its exit status
+        tasks.append(BackgroundTask(_model_and_schedule))
+        report_tmps: dict[str, str] = {}
+        for k in ("results", "report", "bcf"):
+            report_tmps[k] = new_temp(targets[k])
+            temps.append((report_tmps[k], targets[k]))  # each at once: removed if the next cannot be made
+
+        def _reports() -> None:  # results.json, the issue list and the BCF file
+            doc = outcome.doc
+            drawings, symbols = issue_drawings(outcome.results, outcome.members)
+            # BCF snapshots of the connections that exist (a joint that needs design has nothing to show)
+            snapshots = {r.joint.id: to_png(elevation_for(r, outcome.members[r.joint.beam]))
+                         for r in outcome.results if r.joint.id in drawings and r.connection is not None}
+            project = model.by_type("IfcProject")
+            # a damaged file may hold something other than text in the project's GlobalId or Name
+            guid, name = (project[0].GlobalId, project[0].Name) if project else (None, "")
+            bcf = bcf_archive(doc, version=bcf_version, project_guid=guid if isinstance(guid, str) else None,
+                              project_name=name if isinstance(name, str) else "", snapshots=snapshots,
+                              needs_design=needs_design_topics)
+            write_prepared(report_tmps["results"], targets["results"], parts_writer(_results_json(doc)))
+            write_prepared(report_tmps["report"], targets["report"], parts_writer(report_parts(doc, drawings, symbols)))
+            write_prepared(report_tmps["bcf"], targets["bcf"], bcf)
+
+        tasks.append(BackgroundTask(_reports))
+        while tasks:  # the reports, the property sets (which report the copy's error), the copy
+            tasks.pop().join()
         # renamed in the order results, schedule, report, BCF, and the model copy last, as before
         by_target = {str(t): (tmp, t) for tmp, t in temps}
         commit_all([by_target[str(targets[k])] for k in ("results", "schedule", "report", "bcf", "ifc")])
@@ -289,9 +310,9 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
                 pass
         raise
 
-    s = doc["summary"]
+    s = outcome.status_counts()
     sys.stdout.write(
-        f"CAUTION: {CAUTION}\n\n{doc['model']['file']} audited to {doc['code_title'] or doc['code']}: "
+        f"CAUTION: {CAUTION}\n\n{Path(outcome.frame.file).name} audited to {outcome.code_title or outcome.code}: "
         f"{s['joints']} joints — {s['pass']} pass, {s['fail']} fail, {s['needs-design']} need design, "
         f"{s['incomplete']} incomplete, {s['not-checked']} not checked\n"
     )

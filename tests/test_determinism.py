@@ -145,9 +145,14 @@ def test_a_failed_model_copy_leaves_no_output_and_exits_2(tmp_path, capsys, monk
 
     import ifcopenshell
 
-    def full_disk(self, path, *a, **k):
-        raise OSError(errno.ENOSPC, "No space left on device", path)
+    import shutil
 
+    def full_disk(*a, **k):
+        raise OSError(errno.ENOSPC, "No space left on device", str(a[-1]))
+
+    # the copy is the input's own bytes (ifc_io.write_psets_text.copy_input_verbatim); when that
+    # fails, IfcOpenShell writes it: both fail here
+    monkeypatch.setattr(shutil, "copyfile", full_disk)
     monkeypatch.setattr(ifcopenshell.file, "write", full_disk)
     monkeypatch.setenv("JOINT_AUDIT_SERIAL", serial)
     out = tmp_path / "out"
