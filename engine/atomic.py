@@ -15,8 +15,8 @@ from typing import Callable, Iterable, Sequence
 
 from engine.errors import OutputError
 
-__all__ = ["write_atomic", "write_atomic_with", "write_all_atomic", "write_temps", "write_prepared", "commit_all",
-           "new_temp", "unlink_quietly", "refuse_input_overwrite", "parts_writer"]
+__all__ = ["write_atomic", "write_atomic_with", "write_all_atomic", "write_temps", "commit_all", "new_temp",
+           "unlink_quietly", "refuse_input_overwrite", "parts_writer"]
 
 
 def refuse_input_overwrite(target: str | os.PathLike[str], inputs: list[str | os.PathLike[str]]) -> None:
@@ -120,23 +120,16 @@ def write_temps(
         for t, what in outputs:
             tmp = new_temp(t)
             pairs.append((tmp, Path(t)))
-            write_prepared(tmp, t, what)
+            writer = what if callable(what) else _bytes_writer(what)
+            try:
+                writer(tmp)
+            except OSError as exc:
+                raise OutputError(f"cannot write {t}: {exc.strerror or exc}") from None
     except BaseException:
         for tmp, _ in pairs:
             _unlink(tmp)
         raise
     return pairs
-
-
-def write_prepared(tmp: str, target: str | os.PathLike[str], what: bytes | str | Callable[[str], None]) -> None:
-    """Write ``what`` (bytes, text, or a ``writer(tmp_path)``) into the temporary file ``tmp`` made
-    for ``target`` by :func:`new_temp`; an operating-system error is an :class:`OutputError` naming
-    the target. The caller commits or removes ``tmp``."""
-    writer = what if callable(what) else _bytes_writer(what)
-    try:
-        writer(tmp)
-    except OSError as exc:
-        raise OutputError(f"cannot write {target}: {exc.strerror or exc}") from None
 
 
 def write_all_atomic(

@@ -11,14 +11,13 @@ precedence.
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
-from functools import cached_property, partial
+from dataclasses import dataclass
 from typing import Any, Callable, Mapping
 
 from engine.connection_schedule import ConnectionSchedule
 from engine.evaluate import FIN_PLATE_KINDS, ConnectionChoice, evaluate_joints
 from engine.config import plate_grade as configured_plate_grade, weld_electrode
-from engine.model import STATUSES, DataWarning, Frame, JointResult, Member, Steel, Weld
+from engine.model import DataWarning, Frame, JointResult, Member, Steel, Weld
 
 __all__ = ["AuditOutcome", "run_audit", "find_frame_joints", "Progress"]
 
@@ -28,32 +27,15 @@ Progress = Callable[[str, int, int], None]
 
 @dataclass(frozen=True)
 class AuditOutcome:
-    """Everything one audit produced: per-joint results, the results document (:attr:`doc`), the
-    joint finding (with its graph), the members by GlobalId, and every warning of every stage."""
+    """Everything one audit produced: per-joint results, the results document, the joint finding
+    (with its graph), the members by GlobalId, and every warning of every stage."""
 
     results: tuple[JointResult, ...]
+    doc: dict[str, Any]
     finding: Any
     members: Mapping[str, Member]
     warnings: tuple[DataWarning, ...]
     frame: Frame
-    code: str
-    code_title: str
-    document: Callable[[], dict[str, Any]] = field(repr=False, compare=False)
-
-    @cached_property
-    def doc(self) -> dict[str, Any]:
-        """The results document (:func:`engine.results.results_document`), built on first use and
-        kept: the command line builds it in the processes that write the outputs, not in the main
-        one."""
-        return self.document()
-
-    def status_counts(self) -> dict[str, int]:
-        """The results document's ``summary`` (joints, then the count of each status), from the
-        results without building the document."""
-        summary = {"joints": len(self.results), **{s: 0 for s in STATUSES}}
-        for r in self.results:
-            summary[r.status] += 1
-        return summary
 
 
 def _quiet(stage: str, done: int, total: int) -> None:
@@ -180,11 +162,9 @@ def run_audit(
     marks, removed = (None, [])
     if baseline is not None:
         marks, removed = baseline_marks(results, baseline)
-    document = partial(
-        results_document,
+    doc = results_document(
         results, frame, members, code=config["code"], code_title=getattr(ruleset, "title", ""),
         baseline=marks, removed=removed, run_date=run_date, config=config, warnings=warnings,
         baseline_was={jid: str(j.get("status")) for jid, j in baseline.items()} if baseline is not None else None,
     )
-    return AuditOutcome(tuple(results), finding, members, tuple(warnings), frame, config["code"],
-                        getattr(ruleset, "title", ""), document)
+    return AuditOutcome(tuple(results), doc, finding, members, tuple(warnings), frame)

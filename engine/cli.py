@@ -205,7 +205,7 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
     from ifc_io.write_bcf import bcf_archive
     from ifc_io.write_psets_text import append_joint_psets, copy_input_verbatim, prepare_model_copy
 
-    from engine.atomic import commit_all, new_temp, parts_writer, refuse_input_overwrite, unlink_quietly, write_prepared
+    from engine.atomic import commit_all, new_temp, parts_writer, refuse_input_overwrite, unlink_quietly, write_temps
     from engine.background import BackgroundTask
     from engine.raster import to_png
     from engine.report_drawings import elevation_for, issue_drawings
@@ -252,44 +252,34 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
                               after_read=None if verbatim else
                               lambda: tasks.append(BackgroundTask(lambda: model.write(ifc_tmp))))
         bar.done()
+        doc = outcome.doc
         copy_task = tasks[0] if tasks else None
-        n_per_force_unit = outcome.frame.n_per_force_unit
-        # The outputs are written by two children at once, each building the results document
-        # (outcome.doc) for itself: the main process never holds it. Where nothing is forked the
-        # two run here one after the other and the document is built once.
-        csv_tmp = new_temp(targets["schedule"])
-        temps.append((csv_tmp, targets["schedule"]))
 
-        def _model_and_schedule() -> None:  # once the copy is written, the property sets added to it
+        def _add_psets() -> None:  # in a child: once the copy is written, the property sets added to it
             if copy_task is not None:
                 copy_task.wait_from_sibling()
-            append_joint_psets(model, outcome.doc, ifc_tmp, first_id, owner_id, n_per_force_unit=n_per_force_unit)
-            write_prepared(csv_tmp, targets["schedule"], schedule_csv(outcome.doc))
+            append_joint_psets(model, doc, ifc_tmp, first_id, owner_id, n_per_force_unit=outcome.frame.n_per_force_unit)
 
-        tasks.append(BackgroundTask(_model_and_schedule))
-        report_tmps: dict[str, str] = {}
-        for k in ("results", "report", "bcf"):
-            report_tmps[k] = new_temp(targets[k])
-            temps.append((report_tmps[k], targets[k]))  # each at once: removed if the next cannot be made
-
-        def _reports() -> None:  # results.json, the issue list and the BCF file
-            doc = outcome.doc
-            drawings, symbols = issue_drawings(outcome.results, outcome.members)
-            # BCF snapshots of the connections that exist (a joint that needs design has nothing to show)
-            snapshots = {r.joint.id: to_png(elevation_for(r, outcome.members[r.joint.beam]))
-                         for r in outcome.results if r.joint.id in drawings and r.connection is not None}
-            project = model.by_type("IfcProject")
-            # a damaged file may hold something other than text in the project's GlobalId or Name
-            guid, name = (project[0].GlobalId, project[0].Name) if project else (None, "")
-            bcf = bcf_archive(doc, version=bcf_version, project_guid=guid if isinstance(guid, str) else None,
-                              project_name=name if isinstance(name, str) else "", snapshots=snapshots,
-                              needs_design=needs_design_topics)
-            write_prepared(report_tmps["results"], targets["results"], parts_writer(_results_json(doc)))
-            write_prepared(report_tmps["report"], targets["report"], parts_writer(report_parts(doc, drawings, symbols)))
-            write_prepared(report_tmps["bcf"], targets["bcf"], bcf)
-
-        tasks.append(BackgroundTask(_reports))
-        while tasks:  # the reports, the property sets (which report the copy's error), the copy
+        # started now, so the main process goes on with the other outputs while the copy is finished
+        tasks.append(BackgroundTask(_add_psets))
+        drawings, symbols = issue_drawings(outcome.results, outcome.members)
+        html = parts_writer(report_parts(doc, drawings, symbols))
+        # BCF snapshots of the connections that exist (a joint that needs design has nothing to show)
+        snapshots = {r.joint.id: to_png(elevation_for(r, outcome.members[r.joint.beam]))
+                     for r in outcome.results if r.joint.id in drawings and r.connection is not None}
+        project = model.by_type("IfcProject")
+        # a damaged file may hold something other than text in the project's GlobalId or Name
+        guid, name = (project[0].GlobalId, project[0].Name) if project else (None, "")
+        bcf = bcf_archive(doc, version=bcf_version, project_guid=guid if isinstance(guid, str) else None,
+                          project_name=name if isinstance(name, str) else "", snapshots=snapshots,
+                          needs_design=needs_design_topics)
+        temps += write_temps([
+            (targets["results"], parts_writer(_results_json(doc))),
+            (targets["schedule"], schedule_csv(doc)),
+            (targets["report"], html),
+            (targets["bcf"], bcf),
+        ])
+        while tasks:  # the property sets (which report the copy's error with its message), then the copy
             tasks.pop().join()
         # renamed in the order results, schedule, report, BCF, and the model copy last, as before
         by_target = {str(t): (tmp, t) for tmp, t in temps}
@@ -310,9 +300,9 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
                 pass
         raise
 
-    s = outcome.status_counts()
+    s = doc["summary"]
     sys.stdout.write(
-        f"CAUTION: {CAUTION}\n\n{Path(outcome.frame.file).name} audited to {outcome.code_title or outcome.code}: "
+        f"CAUTION: {CAUTION}\n\n{doc['model']['file']} audited to {doc['code_title'] or doc['code']}: "
         f"{s['joints']} joints — {s['pass']} pass, {s['fail']} fail, {s['needs-design']} need design, "
         f"{s['incomplete']} incomplete, {s['not-checked']} not checked\n"
     )
