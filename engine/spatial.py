@@ -88,16 +88,25 @@ class SegmentGrid:
     def _key(ijk: np.ndarray, dims: tuple[int, int, int]) -> np.ndarray:
         return (ijk[:, 0] * dims[1] + ijk[:, 1]) * dims[2] + ijk[:, 2]
 
-    def query(self, points: np.ndarray, radius: float) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    def query(self, points: np.ndarray, radius: float, chunk: int = 8192) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
         """Pairs (point index, segment index, distance mm) with distance ≤ ``radius``.
 
         ``radius`` must not exceed the radius the grid was built for. Pairs are sorted by point index,
         then segment index. Points sharing a cell share its 27-cell neighbourhood: the neighbourhood
-        is looked up once per occupied query cell, then handed to each point in it.
+        is looked up once per occupied query cell, then handed to each point in it. The points go
+        through in runs of ``chunk``: the candidate pairs before the distance test are many times
+        the pairs kept, and held for all points at once they set the joint finder's peak memory.
         """
         if radius > 0.75 * self.cell + 1e-9:
             raise ValueError(f"query radius {radius} mm exceeds the grid's build radius")
         points = np.asarray(points, dtype=float).reshape(-1, 3)
+        if len(points) > chunk:
+            parts = [self.query(points[i:i + chunk], radius, chunk) for i in range(0, len(points), chunk)]
+            return (np.concatenate([q + i for (q, _, _), i in zip(parts, range(0, len(points), chunk))]),
+                    np.concatenate([p[1] for p in parts]), np.concatenate([p[2] for p in parts]))
+        return self._query(points, radius)
+
+    def _query(self, points: np.ndarray, radius: float) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
         empty = (np.zeros(0, np.int64), np.zeros(0, np.int64), np.zeros(0))
         if len(points) == 0 or len(self.items) == 0:
             return empty

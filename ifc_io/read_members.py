@@ -22,6 +22,7 @@ Roles (:func:`member_role`):
 from __future__ import annotations
 
 import math
+from typing import Callable
 
 from engine.background import BackgroundTask, can_fork
 from ifc_io.read_relations import elements_once
@@ -203,28 +204,35 @@ PARALLEL_MIN = 4000  # elements: below this, a second process costs more than it
 def read_members(ctx, steel_resolver, properties: tuple[str, ...] = ()) -> list[Member]:
     """Every IfcBeam, IfcColumn and IfcMember with a usable axis (warnings go to ``ctx``).
 
-    On a large model where :mod:`engine.background` forks, the second half of the elements is read
-    by a child process while this one reads the first: the same members and warnings in the same
-    order as one process reading them all (if the child fails, this process reads its half too)."""
+    On a large model where :mod:`engine.background` forks, two child processes read the two halves
+    of the elements at once and return their members and warnings: the same, in the same order, as
+    one process reading them all. The short-lived objects of reading (IfcOpenShell's entity
+    wrappers, intermediate geometry) then live and die in the children, so this process keeps only
+    the members. If a child fails, this process reads its half itself."""
     elements = list(elements_once(ctx.index, ("IfcBeam", "IfcColumn", "IfcMember")))
     if len(elements) < PARALLEL_MIN or not can_fork():
         return _read_some(elements, ctx, steel_resolver, properties)
-    cut = len(elements) // 2
     before = len(ctx.warnings)
+    cut = len(elements) // 2
+    halves = (elements[:cut], elements[cut:])
 
-    def _second_half() -> tuple[list[Member], list]:
-        found = _read_some(elements[cut:], ctx, steel_resolver, properties)
-        return found, ctx.warnings[before:]
+    def _reader(part: list) -> Callable[[], tuple[list[Member], list]]:
+        def _read() -> tuple[list[Member], list]:
+            found = _read_some(part, ctx, steel_resolver, properties)
+            return found, ctx.warnings[before:]
+        return _read
 
-    task = BackgroundTask(_second_half, returns=True)
-    members = _read_some(elements[:cut], ctx, steel_resolver, properties)
-    try:
-        more, warned = task.join()
-    except Exception:  # the child could not finish (out of memory, killed): read its half here
-        more = _read_some(elements[cut:], ctx, steel_resolver, properties)
-    else:
-        ctx.warnings.extend(warned)
-    return members + more
+    tasks = [BackgroundTask(_reader(part), returns=True) for part in halves]
+    members: list[Member] = []
+    for part, task in zip(halves, tasks):
+        try:
+            found, warned = task.join()
+        except Exception:  # the child could not finish (out of memory, killed): read its half here
+            found = _read_some(part, ctx, steel_resolver, properties)
+        else:
+            ctx.warnings.extend(warned)
+        members += found
+    return members
 
 
 def _read_some(elements: list, ctx, steel_resolver, properties: tuple[str, ...]) -> list[Member]:
