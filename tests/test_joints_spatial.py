@@ -9,6 +9,20 @@ import pytest
 from engine.spatial import SegmentGrid, point_segment_distance, points_in_boxes
 
 
+@pytest.mark.parametrize("chunk", [1, 7, 64])
+def test_grid_query_in_runs_of_points_gives_the_same_pairs_in_the_same_order(chunk):
+    rng = np.random.default_rng(5)
+    a = rng.uniform(0, 20000, (300, 3))
+    b = a + rng.normal(0, 3000, (300, 3))
+    q = np.vstack([a[:80], rng.uniform(0, 20000, (120, 3))])
+    grid = SegmentGrid.build(a, b, 600.0, pad_points=q)
+    whole = grid.query(q, 600.0, chunk=10**9)
+    runs = grid.query(q, 600.0, chunk=chunk)
+    assert len(whole[0]) > 100
+    for x, y in zip(whole, runs):
+        assert np.array_equal(x, y)
+
+
 def test_point_segment_distance_matches_hand_values():
     a = np.array([[0.0, 0.0, 0.0]] * 3)
     b = np.array([[10.0, 0.0, 0.0]] * 3)
