@@ -53,8 +53,10 @@ from engine.cli import main
 # before its clock: both columns time the work on the model, not the interpreter loading code
 import ifc_io, ifc_io.library, ifc_io.write_bcf, ifc_io.write_psets_text, rules, rules.as4100  # noqa: F401
 import engine.report_html, engine.report_drawings, engine.raster, engine.results, engine.background  # noqa: F401
-import engine.atomic, engine.joints, engine.graph, engine.demand, engine.demand_schedule, engine.tributary  # noqa: F401
-import engine.connections, ifc_io.connectivity, ifc_io.read_analysis, xml.etree.ElementTree  # noqa: F401
+import engine.atomic, engine.joints, engine.demand, engine.demand_schedule, engine.connections  # noqa: F401
+import ifc_io.connectivity, ifc_io.read_analysis, importlib.readers, importlib.resources.readers  # noqa: F401
+# (networkx, shapely and Pillow are not imported here: an audit without a take-down, a graph or a
+# drawn connection does not load them, and importing them would add their memory to the audit's)
 loaded = set(sys.modules)
 t0 = time.perf_counter(); code = main(["audit", sys.argv[1], "--out", sys.argv[2]]); t1 = time.perf_counter()
 late = sorted(m for m in set(sys.modules) - loaded if not m.startswith("_"))

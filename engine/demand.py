@@ -37,13 +37,15 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
-from typing import Callable, Mapping, Sequence
+from typing import TYPE_CHECKING, Callable, Mapping, Sequence
 
 from engine.config import DEFAULTS
 from engine.demand_schedule import DemandSchedule, ScheduleRow
 from engine.errors import BadInputError, ConfigError
 from engine.model import DataWarning, Demand, Joint, Member
-from engine.tributary import TakeDown, parse_area_loads, take_down
+
+if TYPE_CHECKING:  # the take-down (networkx, shapely) is loaded only when the config asks for it
+    from engine.tributary import TakeDown
 
 __all__ = ["SOURCES", "DemandResolution", "resolve_demands", "resolve_demands_detailed",
            "model_shear"]
@@ -214,12 +216,20 @@ def resolve_demands_detailed(
     td: TakeDown | None = None
     td_reason = ""
     if "tributary" in order:
-        loads = parse_area_loads(d["area_loads"], "config")  # type: ignore[arg-type]
+        raw_loads = d["area_loads"]
+        if isinstance(raw_loads, (list, tuple)) and not raw_loads:
+            loads = []  # nothing to take down: the take-down's module (networkx, shapely) is not loaded
+        else:
+            from engine.tributary import parse_area_loads
+
+            loads = parse_area_loads(raw_loads, "config")  # type: ignore[arg-type]
         if not loads:
             td_reason = "no floor area loads configured (demand.area_loads)"
         elif combination is None:
             td_reason = "no ultimate load combination given (from the rule set)"
         else:
+            from engine.tributary import take_down
+
             td = take_down(members, joints, loads, combination, self_weight=bool(d["self_weight"]))
             warnings.extend(td.warnings)
 

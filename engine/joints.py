@@ -44,13 +44,11 @@ from __future__ import annotations
 import math
 from collections import defaultdict
 from dataclasses import dataclass, field
-from typing import Any, Sequence
+from typing import TYPE_CHECKING, Any, Sequence
 
-import networkx as nx
 import numpy as np
 
 from engine.gc_pause import cycle_collection_paused
-from engine.graph import build_graph
 from engine.joint_geometry import (MemberArrays, angle_between_deg, copes_for_web_joints,
                                    pair_metrics, tops_and_bottoms)
 from engine.model import (Bearing, Cope, DataWarning, ExplicitConnection, Joint, JointGeometry, Member,
@@ -60,6 +58,9 @@ from engine.stiffness import (POLICIES, SupportFacts, apply_policy, classify, cl
                               relative_stiffness_batch)
 from engine.errors import ConfigError
 from engine.tolerances import Tolerances
+
+if TYPE_CHECKING:  # networkx is loaded only when a graph is built (engine.graph)
+    import networkx as nx
 
 __all__ = ["UnresolvedEnd", "JointFinding", "find_joints", "joint_rows"]
 
@@ -103,6 +104,8 @@ class JointFinding:
     def graph(self) -> nx.MultiDiGraph:
         """The networkx graph of members and joints (:mod:`engine.graph`), built once on first use."""
         if not self._graph:
+            from engine.graph import build_graph  # networkx is loaded only when the graph is asked for
+
             self._graph.append(build_graph(*self.graph_source))
         return self._graph[0]
 
