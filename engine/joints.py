@@ -942,6 +942,9 @@ def _partner_facts(arr: MemberArrays, members: list[Member], em: np.ndarray, f: 
     return p_label, p_ratio, p_similar
 
 
+_RUN = 4096  # joints made at a time by _build_joints
+
+
 def _build_joints(arr: MemberArrays, members: list[Member], bearings: list[Bearing], em: np.ndarray,
                   ek: np.ndarray, pr: _Pairs, row_of: np.ndarray, via_of: np.ndarray,
                   choices: dict[int, _Choice],
@@ -960,35 +963,14 @@ def _build_joints(arr: MemberArrays, members: list[Member], bearings: list[Beari
 
     p_label, p_ratio, p_similar = _partner_facts(arr, members, em, f, b_l, labels, tol)
 
-    # stiff / flexible, all joints at once
     unknown = [k == "unknown" for k in f.kind]
     sup_label = [labels[si] for si in s_l]
-    beam_sec = [members[bi].section for bi in b_l]
-    sup_sec = [members[si].section for si in s_l]
-    beam_len = [length_l[bi] for bi in b_l]
     inferred_l = pr.inferred[f.rows].tolist()
     is_i_l = arr.is_i.tolist()
-    ratios = relative_stiffness_batch(f.kind, beam_sec, sup_sec, beam_len, f.h_before, f.h_after)
-    verdicts = classify_batch(
-        f.kind, sup_label, [None if u else c for u, c in zip(unknown, f.cont)],
-        [None if u else p for u, p in zip(unknown, p_label)],
-        [None if u else p for u, p in zip(unknown, p_similar)],
-        [None if u else p for u, p in zip(unknown, p_ratio)],
-        [True if u else not inf for u, inf in zip(unknown, inferred_l)],
-        [True if u else is_i_l[si] for u, si in zip(unknown, s_l)], ratios, policy)
-
-    # reasons: what the end meets, then the model's relation and notes, continuity, partner, copes
-    rows = f.rows
     role_l = arr.role.tolist()
-    reasons_all = _kind_reasons_all(
-        pr.code[rows].tolist(), f.kind, pr.flange[rows].tolist(), inferred_l, pr.node[rows].tolist(),
-        pr.at_tips[rows].tolist(), pr.sd[rows].tolist(), [role_l[bi] == _BRACE for bi in b_l], f.gap,
-        f.angle, sup_label, [members[si].role for si in s_l], tol)
-    for i, kind in enumerate(f.kind):
-        if kind == "column-web":
-            reasons_all[i] += _web_clearance(members[b_l[i]], members[s_l[i]], is_i_l[s_l[i]])
     e_l = f.sel.tolist()
     source = ["geometry"] * n
+    notes: dict[int, list[str]] = {}  # joint -> the model's relation and notes, in reason order
     if choices:
         at = {e: i for i, e in enumerate(e_l)}
         for e_idx, ch in choices.items():
@@ -996,39 +978,69 @@ def _build_joints(arr: MemberArrays, members: list[Member], bearings: list[Beari
             if i is None:
                 continue
             source[i] = ch.source
-            if ch.source != "geometry":
-                reasons_all[i].insert(0, f"from the model's {ch.source}")
-            reasons_all[i] += ch.notes
-    via_at = [i for i, (v, c) in enumerate(zip(f.via, f.cont)) if v and c]
-    if via_at:
-        gidx = {g: m for m, g in enumerate(ids)}
-        for i in via_at:
-            reasons_all[i].append(f"{sup_label[i]} continues through the joint as "
-                                  f"{labels[gidx[f.via[i]]]}")
+            notes[i] = ch.notes
+    via_at = {i for i, (v, c) in enumerate(zip(f.via, f.cont)) if v and c}
+    gidx = {g: m for m, g in enumerate(ids)} if via_at else {}
     partner_id: list[str | None] = [None] * n
     for i, pi in f.partner.items():
         partner_id[i] = jid[pi]
-        reasons_all[i].append(f"back-to-back with {p_label[i]} on the other side (joint {jid[pi]}, "
-                              f"span ratio {p_ratio[i]:.2f})")
     copes: list[tuple[Cope, ...]] = [()] * n
     for i, cp in f.copes.items():
         copes[i] = cp
-        for c in cp:
-            reasons_all[i].append(f"{c.where} cope {c.depth:.0f} deep × {c.length:.0f} long required "
-                                  f"to clear the flange of {sup_label[i]}")
 
-    loc_all = arr.end_point(em, ek, centroid=False).tolist()
     # one string object per distinct reason text: most texts recur from joint to joint (a third are
     # distinct on a synthetic 20k frame), and every later stage keeps them
     texts: dict[str, str] = {}
     share = texts.setdefault
-    joints = [Joint(j, ids[bi], _ENDS[k], ids[si], kind,
-                    JointGeometry(tuple(loc_all[e]), angle, gap, None if tos != tos else tos, cp, cont,
-                                  pid),
-                    st, tuple([share(r, r) for r in rsn] + [share(r, r) for r in rs]), src)
-              for j, e, bi, k, si, kind, angle, gap, tos, cp, cont, pid, (st, rs), rsn, src
-              in zip(jid, e_l, b_l, k_l, s_l, f.kind, f.angle, f.gap, f.tos, copes, f.cont, partner_id,
-                     verdicts, reasons_all, source)]
+    joints: list[Joint] = []
+    # The joints are made a run at a time: the per-joint lists of a stage (verdicts, reason texts,
+    # locations) then live for one run, not for all joints at once, which set the finder's peak memory.
+    for c0 in range(0, n, _RUN):
+        c1 = min(n, c0 + _RUN)
+        part = slice(c0, c1)
+        unk = unknown[part]
+        b_p, s_p = b_l[part], s_l[part]
+        kind_p = f.kind[part]
+        ratios = relative_stiffness_batch(kind_p, [members[bi].section for bi in b_p],
+                                          [members[si].section for si in s_p],
+                                          [length_l[bi] for bi in b_p], f.h_before[part], f.h_after[part])
+        verdicts = classify_batch(
+            kind_p, sup_label[part], [None if u else c for u, c in zip(unk, f.cont[part])],
+            [None if u else p for u, p in zip(unk, p_label[part])],
+            [None if u else p for u, p in zip(unk, p_similar[part])],
+            [None if u else p for u, p in zip(unk, p_ratio[part])],
+            [True if u else not inf for u, inf in zip(unk, inferred_l[part])],
+            [True if u else is_i_l[si] for u, si in zip(unk, s_p)], ratios, policy)
+        # reasons: what the end meets, then the model's relation and notes, continuity, partner, copes
+        rows = f.rows[c0:c1]
+        reasons_p = _kind_reasons_all(
+            pr.code[rows].tolist(), kind_p, pr.flange[rows].tolist(), inferred_l[part], pr.node[rows].tolist(),
+            pr.at_tips[rows].tolist(), pr.sd[rows].tolist(), [role_l[bi] == _BRACE for bi in b_p], f.gap[part],
+            f.angle[part], sup_label[part], [members[si].role for si in s_p], tol)
+        loc_p = arr.end_point(em[f.sel[c0:c1]], ek[f.sel[c0:c1]], centroid=False).tolist()
+        for j in range(c1 - c0):
+            i = c0 + j
+            rsn = reasons_p[j]
+            if kind_p[j] == "column-web":
+                rsn += _web_clearance(members[b_l[i]], members[s_l[i]], is_i_l[s_l[i]])
+            if i in notes:
+                if source[i] != "geometry":
+                    rsn.insert(0, f"from the model's {source[i]}")
+                rsn += notes[i]
+            if i in via_at:
+                rsn.append(f"{sup_label[i]} continues through the joint as {labels[gidx[f.via[i]]]}")
+            if partner_id[i] is not None:
+                rsn.append(f"back-to-back with {p_label[i]} on the other side (joint {partner_id[i]}, "
+                           f"span ratio {p_ratio[i]:.2f})")
+            for c in copes[i]:
+                rsn.append(f"{c.where} cope {c.depth:.0f} deep × {c.length:.0f} long required "
+                           f"to clear the flange of {sup_label[i]}")
+            st, rs = verdicts[j]
+            tos = f.tos[i]
+            joints.append(Joint(jid[i], ids[b_l[i]], _ENDS[k_l[i]], ids[s_l[i]], kind_p[j],
+                                JointGeometry(tuple(loc_p[j]), f.angle[i], f.gap[i], None if tos != tos else tos,
+                                              copes[i], f.cont[i], partner_id[i]),
+                                st, tuple([share(r, r) for r in rsn] + [share(r, r) for r in rs]), source[i]))
     if all(ch.row is not None for ch in choices.values()):
         return joints, f.sel
     joint_at = dict(zip(e_l, joints))
@@ -1038,7 +1050,7 @@ def _build_joints(arr: MemberArrays, members: list[Member], bearings: list[Beari
             continue
         m = int(em[e_idx])
         gid, endname = ids[m], _ENDS[int(ek[e_idx])]
-        loc = tuple(loc_all[e_idx])
+        loc = tuple(arr.end_point(em[[e_idx]], ek[[e_idx]], centroid=False)[0].tolist())
         if ch.wall is None:  # free end
             if free is None:
                 free = apply_policy(classify(SupportFacts(kind="free-end")), policy)
