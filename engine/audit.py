@@ -15,6 +15,7 @@ from dataclasses import dataclass
 from typing import Any, Callable, Mapping
 
 from engine.connection_schedule import ConnectionSchedule
+from engine.memory import give_back_free_memory
 from engine.evaluate import FIN_PLATE_KINDS, ConnectionChoice, evaluate_joints
 from engine.config import plate_grade as configured_plate_grade, weld_electrode
 from engine.model import DataWarning, Frame, JointResult, Member, Steel, Weld
@@ -129,6 +130,7 @@ def run_audit(
     policy = config["support"]["policy"]
     progress("joints", 0, 1)
     finding = find_frame_joints(frame, config)
+    give_back_free_memory()  # the finder's scratch (engine.memory)
     progress("joints", 1, 1)
     members = {m.global_id: m for m in frame.members}
     warnings: list[DataWarning] = list(frame.warnings) + list(finding.warnings)

@@ -210,7 +210,7 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
     from engine.raster import to_png
     from engine.report_drawings import elevation_for, issue_drawings
     from engine.report_html import report_parts
-    from engine.results import read_baseline, schedule_csv
+    from engine.results import read_baseline, schedule_csv_parts
 
     # the model and the baseline are read before anything is written
     try:
@@ -275,7 +275,7 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
                           needs_design=needs_design_topics)
         temps += write_temps([
             (targets["results"], parts_writer(_results_json(doc))),
-            (targets["schedule"], schedule_csv(doc)),
+            (targets["schedule"], parts_writer(schedule_csv_parts(doc))),
             (targets["report"], html),
             (targets["bcf"], bcf),
         ])
@@ -366,7 +366,9 @@ def _cmd_audit(args: argparse.Namespace) -> int:
     if not args.model:
         raise UsageError("audit needs MODEL.ifc (or --show-config)")
     from engine.gc_pause import cycle_collection_paused
+    from engine.memory import map_large_blocks_apart
 
+    map_large_blocks_apart()  # see engine.memory
     with cycle_collection_paused():  # see engine.gc_pause
         code = _run_audit(args.model, args.out, args.config, args.code, args.schedule, args.baseline,
                           args.bcf_version, args.design, args.needs_design_topics)

@@ -322,6 +322,9 @@ def _find_joints(members: Sequence[Member], bearings: Sequence[Bearing],
     pr_all = _classify_pairs(arr, em, ek, q, s_full, dist, tol)
     ok = pr_all.code != _NONE
     pr = _Pairs(*(getattr(pr_all, f)[ok] for f in _Pairs.__dataclass_fields__))
+    # the grid and every candidate pair (many times the pairs kept) are done with: freed now, not
+    # held through the making of the joints, where the finder's memory peaks
+    del grid, q, si, dist, s_full, keep, pr_all, ok
 
     # continuation map: (member, end) -> members continuing collinear from that end
     cont: dict[tuple[int, int], set[int]] = defaultdict(set)

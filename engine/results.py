@@ -18,7 +18,7 @@ import json
 import math
 from dataclasses import asdict
 from pathlib import Path
-from typing import Any, Mapping, Sequence
+from typing import Any, Iterator, Mapping, Sequence
 
 from engine import __version__
 from engine.cautions import CAUTION
@@ -33,6 +33,7 @@ __all__ = [
     "read_baseline",
     "baseline_marks",
     "schedule_csv",
+    "schedule_csv_parts",
 ]
 
 
@@ -249,10 +250,16 @@ SCHEDULE_COLUMNS = (
 
 def schedule_csv(doc: Mapping[str, Any]) -> str:
     """The connection schedule (one row per joint) as CSV text, from a results document."""
+    return "".join(schedule_csv_parts(doc))
+
+
+def schedule_csv_parts(doc: Mapping[str, Any], rows_per_part: int = 2000) -> Iterator[str]:
+    """:func:`schedule_csv` in pieces of ``rows_per_part`` rows (a large model's schedule is
+    written without ever being held whole)."""
     buf = io.StringIO()
     w = csv.writer(buf, lineterminator="\n")
     w.writerow(SCHEDULE_COLUMNS)
-    for j in doc["joints"]:
+    for n, j in enumerate(doc["joints"], 1):
         w.writerow([
             j["id"], j["beam"], j["beam_name"], j["end"], j["support"] or "", j["support_name"], j["storey"],
             j["kind"], j["stiffness"],
@@ -262,4 +269,8 @@ def schedule_csv(doc: Mapping[str, Any]) -> str:
             "" if j["utilisation"] is None else j["utilisation"],
             j["governing"] or "", j["status"], j["baseline"] or "",
         ])
-    return buf.getvalue()
+        if n % rows_per_part == 0:
+            yield buf.getvalue()
+            buf.seek(0)
+            buf.truncate()
+    yield buf.getvalue()
