@@ -11,7 +11,8 @@ precedence.
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, field
+from functools import cached_property, partial
 from typing import Any, Callable, Mapping
 
 from engine.connection_schedule import ConnectionSchedule
@@ -28,15 +29,25 @@ Progress = Callable[[str, int, int], None]
 
 @dataclass(frozen=True)
 class AuditOutcome:
-    """Everything one audit produced: per-joint results, the results document, the joint finding
-    (with its graph), the members by GlobalId, and every warning of every stage."""
+    """Everything one audit produced: per-joint results, the results document (:attr:`doc`), the
+    joint finding (with its graph), the members by GlobalId, and every warning of every stage.
+
+    ``document(stream=False)`` makes the results document (:func:`engine.results.results_document`
+    with this run's arguments); ``stream=True`` gives it with one-pass ``joints`` and ``warnings``,
+    for writers that go through them once (the command line: a large model's document is then
+    never held whole)."""
 
     results: tuple[JointResult, ...]
-    doc: dict[str, Any]
     finding: Any
     members: Mapping[str, Member]
     warnings: tuple[DataWarning, ...]
     frame: Frame
+    document: Callable[..., dict[str, Any]] = field(repr=False, compare=False)
+
+    @cached_property
+    def doc(self) -> dict[str, Any]:
+        """The results document, made on first use and kept."""
+        return self.document()
 
 
 def _quiet(stage: str, done: int, total: int) -> None:
@@ -164,9 +175,10 @@ def run_audit(
     marks, removed = (None, [])
     if baseline is not None:
         marks, removed = baseline_marks(results, baseline)
-    doc = results_document(
+    document = partial(
+        results_document,
         results, frame, members, code=config["code"], code_title=getattr(ruleset, "title", ""),
         baseline=marks, removed=removed, run_date=run_date, config=config, warnings=warnings,
         baseline_was={jid: str(j.get("status")) for jid, j in baseline.items()} if baseline is not None else None,
     )
-    return AuditOutcome(tuple(results), doc, finding, members, tuple(warnings), frame)
+    return AuditOutcome(tuple(results), finding, members, tuple(warnings), frame, document)

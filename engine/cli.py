@@ -11,13 +11,15 @@ commands that need it, so the mechanics never import ifcopenshell.
 from __future__ import annotations
 
 import argparse
+import csv
 import dataclasses
 import gc
 import json
 import os
 import sys
+from itertools import islice
 from pathlib import Path
-from typing import Any, Iterator, Sequence
+from typing import Any, Callable, Iterable, Iterator, Sequence
 
 import orjson
 
@@ -202,15 +204,15 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
     import ifc_io
     from ifc_io.library import audit_model
     from ifc_io.open import parse_problems
-    from ifc_io.write_bcf import bcf_archive
+    from ifc_io.write_bcf import BcfTopics, bcf_archive
     from ifc_io.write_psets_text import append_joint_psets, copy_input_verbatim, prepare_model_copy
 
     from engine.atomic import commit_all, new_temp, parts_writer, refuse_input_overwrite, unlink_quietly, write_temps
     from engine.background import BackgroundTask
     from engine.raster import to_png
     from engine.report_drawings import elevation_for, issue_drawings
-    from engine.report_html import report_parts
-    from engine.results import read_baseline, schedule_csv_parts
+    from engine.report_html import IssueList, report_parts
+    from engine.results import SCHEDULE_COLUMNS, read_baseline, schedule_row
 
     # the model and the baseline are read before anything is written
     try:
@@ -248,22 +250,44 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
                     and copy_input_verbatim(model_path, ifc_tmp, opened))
         bar = _ProgressBar()
         outcome = audit_model(model, code=code, config_file=config_file, schedules=schedules, baseline=baseline,
-                              file_label=Path(model_path).name, progress=bar, design=design,
+                              file_label=Path(model_path).name, progress=bar, design=design, make_document=False,
                               after_read=None if verbatim else
                               lambda: tasks.append(BackgroundTask(lambda: model.write(ifc_tmp))))
         bar.done()
-        doc = outcome.doc
+        n_per_force_unit = outcome.frame.n_per_force_unit
         copy_task = tasks[0] if tasks else None
 
         def _add_psets() -> None:  # in a child: once the copy is written, the property sets added to it
             if copy_task is not None:
                 copy_task.wait_from_sibling()
-            append_joint_psets(model, doc, ifc_tmp, first_id, owner_id, n_per_force_unit=outcome.frame.n_per_force_unit)
+            append_joint_psets(model, outcome.document(stream=True), ifc_tmp, first_id, owner_id,
+                               n_per_force_unit=n_per_force_unit)
 
         # started now, so the main process goes on with the other outputs while the copy is finished
         tasks.append(BackgroundTask(_add_psets))
+        # The results document is made one joint at a time, never held whole (a large model's is
+        # tens of megabytes): as results.json is written, each joint also goes to the CSV schedule,
+        # the issue list and the BCF topics, which keep only what they need from it.
+        doc = outcome.document(stream=True)
+        issues, topics = IssueList(), BcfTopics(needs_design_topics)
+        csv_tmp = new_temp(targets["schedule"])
+        temps.append((csv_tmp, targets["schedule"]))
+        with open(csv_tmp, "w", encoding="utf-8", newline="") as csv_fh:
+            rows = csv.writer(csv_fh, lineterminator="\n")
+
+            def _to_schedule(j: dict[str, Any]) -> None:
+                try:
+                    rows.writerow(schedule_row(j))
+                except OSError as exc:
+                    raise OutputError(f"cannot write {targets['schedule']}: {exc.strerror or exc}") from None
+
+            try:
+                rows.writerow(SCHEDULE_COLUMNS)
+            except OSError as exc:
+                raise OutputError(f"cannot write {targets['schedule']}: {exc.strerror or exc}") from None
+            tapped = dict(doc, joints=_tapped(doc["joints"], (_to_schedule, issues.add, topics.add)))
+            temps += write_temps([(targets["results"], parts_writer(_results_json(tapped)))])
         drawings, symbols = issue_drawings(outcome.results, outcome.members)
-        html = parts_writer(report_parts(doc, drawings, symbols))
         # BCF snapshots of the connections that exist (a joint that needs design has nothing to show)
         snapshots = {r.joint.id: to_png(elevation_for(r, outcome.members[r.joint.beam]))
                      for r in outcome.results if r.joint.id in drawings and r.connection is not None}
@@ -272,11 +296,9 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
         guid, name = (project[0].GlobalId, project[0].Name) if project else (None, "")
         bcf = bcf_archive(doc, version=bcf_version, project_guid=guid if isinstance(guid, str) else None,
                           project_name=name if isinstance(name, str) else "", snapshots=snapshots,
-                          needs_design=needs_design_topics)
+                          needs_design=needs_design_topics, gathered=topics)
         temps += write_temps([
-            (targets["results"], parts_writer(_results_json(doc))),
-            (targets["schedule"], parts_writer(schedule_csv_parts(doc))),
-            (targets["report"], html),
+            (targets["report"], parts_writer(report_parts(doc, drawings, symbols, gathered=issues))),
             (targets["bcf"], bcf),
         ])
         while tasks:  # the property sets (which report the copy's error with its message), then the copy
@@ -326,6 +348,15 @@ def _retire(*records: Any) -> None:
     _RETIRED[:] = records
 
 
+def _tapped(entries: Iterable[dict[str, Any]], taps: Sequence[Callable[[dict[str, Any]], None]]
+            ) -> Iterator[dict[str, Any]]:
+    """``entries`` one by one, each handed to every tap first (one pass feeding several writers)."""
+    for entry in entries:
+        for tap in taps:
+            tap(entry)
+        yield entry
+
+
 def _results_json(doc: dict[str, Any]) -> Iterator[bytes]:
     """results.json as UTF-8, in pieces: the document with one joint (and one warning) per line
     (readable, and fast to write for large models: the lines are encoded by orjson, the whole text
@@ -335,11 +366,15 @@ def _results_json(doc: dict[str, Any]) -> Iterator[bytes]:
     text = json.dumps(head, indent=1, ensure_ascii=False).encode("utf-8")
     yield text[:-2] + b",\n" if head else b"{\n"
     for n, key in enumerate(k for k in listed if k in doc):
-        items = doc[key]
-        yield (b",\n" if n else b"") + f" {json.dumps(key)}: [".encode("utf-8") + (b"\n" if items else b"")
-        for i in range(0, len(items), 2000):
-            yield (b",\n" if i else b"") + b",\n".join([b"  " + _json_line(x) for x in items[i:i + 2000]])
-        yield b"\n ]" if items else b"]"
+        items = iter(doc[key])  # a list, or a one-pass iterator (results_document(stream=True))
+        chunk = list(islice(items, 2000))
+        yield (b",\n" if n else b"") + f" {json.dumps(key)}: [".encode("utf-8") + (b"\n" if chunk else b"")
+        first = True
+        while chunk:
+            yield (b"" if first else b",\n") + b",\n".join([b"  " + _json_line(x) for x in chunk])
+            first = False
+            chunk = list(islice(items, 2000))
+        yield b"]" if first else b"\n ]"
     yield b"\n}\n"
 
 

@@ -49,6 +49,7 @@ from typing import TYPE_CHECKING, Any, Sequence
 import numpy as np
 
 from engine.gc_pause import cycle_collection_paused
+from engine.memory import give_back_free_memory
 from engine.joint_geometry import (MemberArrays, angle_between_deg, copes_for_web_joints,
                                    pair_metrics, tops_and_bottoms)
 from engine.model import (Bearing, Cope, DataWarning, ExplicitConnection, Joint, JointGeometry, Member,
@@ -325,6 +326,7 @@ def _find_joints(members: Sequence[Member], bearings: Sequence[Bearing],
     # the grid and every candidate pair (many times the pairs kept) are done with: freed now, not
     # held through the making of the joints, where the finder's memory peaks
     del grid, q, si, dist, s_full, keep, pr_all, ok
+    give_back_free_memory()  # engine.memory: the scratch of the pair tests leaves the process
 
     # continuation map: (member, end) -> members continuing collinear from that end
     cont: dict[tuple[int, int], set[int]] = defaultdict(set)

@@ -34,6 +34,8 @@ __all__ = [
     "baseline_marks",
     "schedule_csv",
     "schedule_csv_parts",
+    "schedule_row",
+    "SCHEDULE_COLUMNS",
 ]
 
 
@@ -97,12 +99,50 @@ def results_document(
     config: Mapping[str, Any] | None = None,
     warnings: Sequence[Any] = (),
     baseline_was: Mapping[str, str] | None = None,
+    *,
+    stream: bool = False,
 ) -> dict[str, Any]:
     """The results.json document for one audit run. ``baseline_was`` (joint id → status in the
     baseline run) adds ``baseline_was`` to each joint resolved since then, so the BCF writer can
-    close the topic the issue had (one per joint, or its storey's group of joints needing design)."""
+    close the topic the issue had (one per joint, or its storey's group of joints needing design).
+
+    With ``stream=True`` the document's ``joints`` and ``warnings`` are one-pass iterators that
+    make each entry as it is asked for, instead of lists: for writers that go through them once, so
+    that a large model's document is never held whole (the command line). Everything else,
+    ``summary`` included, is the same."""
+    ordered = sorted(results, key=lambda r: r.joint.id)
     summary = {"joints": len(results), **{s: 0 for s in STATUSES}}
-    joints = []
+    for res in ordered:
+        summary[res.status] += 1
+    joints = _joint_entries(ordered, members, baseline or {}, baseline_was)
+    entries = (
+        {"global_id": _gid(getattr(w, "global_id", None)), "message": str(getattr(w, "message", w))}
+        for w in warnings
+    )
+    return {
+        "tool": {"name": "joint-audit", "version": __version__},
+        "caution": CAUTION,
+        "run": {"date": run_date},
+        "model": {
+            "file": Path(frame.file).name,
+            "schema": frame.schema,
+            "length_unit": frame.length_unit,
+            "force_unit": frame.force_unit,
+        },
+        "code": code,
+        "code_title": code_title,
+        "policy": (config or {}).get("support", {}).get("policy", ""),
+        "summary": summary,
+        "joints": joints if stream else list(joints),
+        "baseline_removed": list(removed),
+        "warnings": entries if stream else list(entries),
+    }
+
+
+def _joint_entries(ordered: Sequence[JointResult], members: Mapping[str, Member],
+                   marks: Mapping[str, str | None], baseline_was: Mapping[str, str] | None
+                   ) -> Iterator[dict[str, Any]]:
+    """The ``joints`` entries of the results document, one per result of ``ordered`` (in that order)."""
     who: dict[str | None, tuple[str, str, str]] = {None: ("", "", "")}  # GlobalId → (label, section, storey)
 
     def _who(gid: str | None) -> tuple[str, str, str]:
@@ -111,7 +151,6 @@ def results_document(
             who[gid] = (m.label, m.section.name, m.storey) if m else ("", "", "")
         return who[gid]
 
-    marks = baseline or {}
     rounded: dict[float | None, float | None] = {}  # _r of the values met so far: most recur
 
     def _rv(x: float | None) -> float | None:
@@ -123,9 +162,8 @@ def results_document(
         except TypeError:  # not a number: _r says what
             return _r(x)
 
-    for res in sorted(results, key=lambda r: r.joint.id):
+    for res in ordered:
         j = res.joint
-        summary[res.status] += 1
         beam_label, beam_section, beam_storey = _who(j.beam)
         support_label, support_section, _ = _who(j.support)
         g = j.geometry
@@ -171,26 +209,7 @@ def results_document(
         }
         if baseline_was and entry["baseline"] == "resolved":
             entry["baseline_was"] = baseline_was.get(j.id)
-        joints.append(entry)
-    return {
-        "tool": {"name": "joint-audit", "version": __version__},
-        "caution": CAUTION,
-        "run": {"date": run_date},
-        "model": {
-            "file": Path(frame.file).name,
-            "schema": frame.schema,
-            "length_unit": frame.length_unit,
-            "force_unit": frame.force_unit,
-        },
-        "code": code,
-        "code_title": code_title,
-        "policy": (config or {}).get("support", {}).get("policy", ""),
-        "summary": summary,
-        "joints": joints,
-        "baseline_removed": list(removed),
-        "warnings": [{"global_id": _gid(getattr(w, "global_id", None)), "message": str(getattr(w, "message", w))}
-                     for w in warnings],
-    }
+        yield entry
 
 
 def _gid(value: Any) -> str | None:
@@ -253,6 +272,19 @@ def schedule_csv(doc: Mapping[str, Any]) -> str:
     return "".join(schedule_csv_parts(doc))
 
 
+def schedule_row(j: Mapping[str, Any]) -> list[Any]:
+    """One joint's row of the connection schedule (:data:`SCHEDULE_COLUMNS`), from its results entry."""
+    return [
+        j["id"], j["beam"], j["beam_name"], j["end"], j["support"] or "", j["support_name"], j["storey"],
+        j["kind"], j["stiffness"],
+        "" if j["demand"] is None else j["demand"]["V_kN"],
+        "" if j["demand"] is None else j["demand"]["source"],
+        "" if j["connection"] is None else j["connection"]["summary"],
+        "" if j["utilisation"] is None else j["utilisation"],
+        j["governing"] or "", j["status"], j["baseline"] or "",
+    ]
+
+
 def schedule_csv_parts(doc: Mapping[str, Any], rows_per_part: int = 2000) -> Iterator[str]:
     """:func:`schedule_csv` in pieces of ``rows_per_part`` rows (a large model's schedule is
     written without ever being held whole)."""
@@ -260,15 +292,7 @@ def schedule_csv_parts(doc: Mapping[str, Any], rows_per_part: int = 2000) -> Ite
     w = csv.writer(buf, lineterminator="\n")
     w.writerow(SCHEDULE_COLUMNS)
     for n, j in enumerate(doc["joints"], 1):
-        w.writerow([
-            j["id"], j["beam"], j["beam_name"], j["end"], j["support"] or "", j["support_name"], j["storey"],
-            j["kind"], j["stiffness"],
-            "" if j["demand"] is None else j["demand"]["V_kN"],
-            "" if j["demand"] is None else j["demand"]["source"],
-            "" if j["connection"] is None else j["connection"]["summary"],
-            "" if j["utilisation"] is None else j["utilisation"],
-            j["governing"] or "", j["status"], j["baseline"] or "",
-        ])
+        w.writerow(schedule_row(j))
         if n % rows_per_part == 0:
             yield buf.getvalue()
             buf.seek(0)

@@ -124,12 +124,15 @@ def audit_model(
     file_label: str = "",
     progress: Progress | None = None,
     after_read: Callable[[], object] | None = None,
+    make_document: bool = True,
 ) -> AuditOutcome:
     """Audit an open model. ``config`` (a dict of overrides) goes over ``config_file`` over the
     defaults; ``code`` over both. With ``write_psets`` the results are written into ``model`` as
     property sets. Returns the :class:`engine.audit.AuditOutcome` (results, results document,
     joints graph, warnings). ``after_read`` is called once the model has been read, before the
-    audit proper (the command line starts writing the model's copy there)."""
+    audit proper (the command line starts writing the model's copy there). With ``make_document``
+    (the default) the results document is made before returning (``outcome.doc``); without it, on
+    first use (the command line streams it instead: ``outcome.document(stream=True)``)."""
     import rules
     from rules.catalog import lookup_steel
 
@@ -150,6 +153,8 @@ def audit_model(
             frame, cfg, ruleset, steel_lookup=lookup_steel, demand_schedule=demand_schedule,
             connection_schedule=connection_schedule, baseline=baseline, run_date=run_date or now_iso(), **kwargs,
         )
+        if make_document:
+            outcome.doc  # noqa: B018 - made here, with the cyclic collector paused
     if write_psets:
         from ifc_io.write_psets import write_joint_psets
 

@@ -38,7 +38,7 @@ from lxml import etree
 
 from engine.errors import OutputError
 
-__all__ = ["topic_guid", "storey_topic_guid", "bcf_archive", "BCF_VERSIONS", "ISSUE_STATUSES", "NEEDS_DESIGN_TOPICS",
+__all__ = ["topic_guid", "storey_topic_guid", "bcf_archive", "BcfTopics", "BCF_VERSIONS", "ISSUE_STATUSES", "NEEDS_DESIGN_TOPICS",
            "GROUP_LISTED"]
 
 BCF_VERSIONS = ("2.1", "3.0")
@@ -209,43 +209,91 @@ def _group_labels(storey: str) -> list[str]:
     return ["joint-audit", "needs-design"] + ([storey] if storey else [])
 
 
-def _group_topic(storey: str, joints: Sequence[Mapping[str, Any]], doc: Mapping[str, Any], version: str, date: str,
+class _Group:
+    """What a storey's topic of joints needing design says about them, gathered joint by joint
+    (so the joints themselves need not be kept): count, kinds, largest end shear, the first
+    ``GROUP_LISTED`` named, the beams to select and the extent of their locations."""
+
+    def __init__(self) -> None:
+        self.n = 0
+        self.kinds: dict[str, int] = {}
+        self.shear: float | None = None
+        self.listed: list[str] = []
+        self.beams: dict[str, None] = {}
+        self.lo = [math.inf] * 3
+        self.hi = [-math.inf] * 3
+
+    def add(self, j: Mapping[str, Any]) -> None:
+        self.n += 1
+        self.kinds[j["kind"]] = self.kinds.get(j["kind"], 0) + 1
+        d = j.get("demand")
+        if d and d.get("V_kN") is not None:
+            self.shear = d["V_kN"] if self.shear is None else max(self.shear, d["V_kN"])
+        if len(self.listed) < GROUP_LISTED:
+            self.listed.append(f"{j['id']}: {j['end']} of {j.get('beam_name') or j['beam']} on "
+                               f"{j.get('support_name') or j.get('support') or 'no support'}")
+        self.beams.setdefault(j["beam"], None)
+        loc = j.get("location_mm") or (0.0, 0.0, 0.0)
+        for i in range(3):
+            self.lo[i] = min(self.lo[i], loc[i])
+            self.hi[i] = max(self.hi[i], loc[i])
+
+
+class BcfTopics:
+    """The joints of a results document that get BCF topics, gathered one joint at a time
+    (:meth:`add`): failing and incomplete joints (and, per joint, those that need design) are kept,
+    the joints that need design grouped by storey are summed up in their storey's group."""
+
+    def __init__(self, needs_design: str = "per-storey") -> None:
+        if needs_design not in NEEDS_DESIGN_TOPICS:
+            raise OutputError(f"BCF topics for joints that need design: {needs_design!r} is not one of "
+                              f"{', '.join(NEEDS_DESIGN_TOPICS)}")
+        self.grouped = needs_design == "per-storey"
+        self.topics: list[tuple[Mapping[str, Any], bool]] = []
+        self.open_groups: dict[str, _Group] = {}
+        self.resolved_groups: dict[str, _Group] = {}
+
+    def add(self, j: Mapping[str, Any]) -> None:
+        if j["status"] in ISSUE_STATUSES:
+            if self.grouped and j["status"] == "needs-design":
+                self.open_groups.setdefault(j.get("storey") or "", _Group()).add(j)
+            else:
+                self.topics.append((j, False))
+        elif j.get("baseline") == "resolved":
+            if self.grouped and j.get("baseline_was") == "needs-design":
+                self.resolved_groups.setdefault(j.get("storey") or "", _Group()).add(j)
+            else:
+                self.topics.append((j, True))
+
+
+def _group_topic(storey: str, group: _Group, doc: Mapping[str, Any], version: str, date: str,
                  project_guid: str | None, closed: bool) -> tuple[bytes, bytes]:
     """markup.bcf and viewpoint.bcfv of a storey's group of joints that need design (``closed``:
-    none does any more; ``joints`` are then the ones resolved since the baseline)."""
+    none does any more; ``group`` then holds the ones resolved since the baseline)."""
     guid = storey_topic_guid(storey)
     where = storey or "no storey"
-    n = len(joints)
+    n = group.n
     if closed:
         title = f"Resolved: connections need design — {where}"
         description = (f"No beam end on {where} needs a connection designed any more; {n} did in the baseline run "
                        f"and are resolved.")
     else:
-        kinds: dict[str, int] = {}
-        for j in joints:
-            kinds[j["kind"]] = kinds.get(j["kind"], 0) + 1
-        shears = [j["demand"]["V_kN"] for j in joints if j.get("demand") and j["demand"].get("V_kN") is not None]
         title = f"Connections need design — {where}: {n} beam end{'s' if n != 1 else ''}"
         description = (
             f"{n} beam end{'s' if n != 1 else ''} on {where} have no connection modelled or scheduled; each needs one "
             f"designed for its end shear"
-            + (f" (largest V* = {max(shears):g} kN)" if shears else "") + ". By kind: "
-            + ", ".join(f"{k} {c}" for k, c in sorted(kinds.items())) + ". Joints (id: end of beam on support): "
-            + "; ".join(f"{j['id']}: {j['end']} of {j.get('beam_name') or j['beam']} on "
-                        f"{j.get('support_name') or j.get('support') or 'no support'}" for j in joints[:GROUP_LISTED])
+            + (f" (largest V* = {group.shear:g} kN)" if group.shear is not None else "") + ". By kind: "
+            + ", ".join(f"{k} {c}" for k, c in sorted(group.kinds.items())) + ". Joints (id: end of beam on support): "
+            + "; ".join(group.listed)
             + (f"; and {n - GROUP_LISTED} more" if n > GROUP_LISTED else "")
             + ". Every joint is listed in issues.html and results.json. "
             "joint-audit is an aid to a competent engineer; check this result.")
     vp_guid = _guid(guid, "viewpoint")
     markup = _topic_xml(guid, vp_guid, _guid(guid, "comment"), title, _group_labels(storey),
                         description, doc, version, date, project_guid, closed, False)
-    beams = list(dict.fromkeys(j["beam"] for j in joints))
-    locs = [j.get("location_mm") or (0.0, 0.0, 0.0) for j in joints]
-    lo = [min(p[i] for p in locs) for i in range(3)]
-    hi = [max(p[i] for p in locs) for i in range(3)]
-    centre = [(a + b) / 2.0 for a, b in zip(lo, hi)]
-    extent_m = max(b - a for a, b in zip(lo, hi)) / 1000.0
-    return markup, _visinfo_xml(vp_guid, beams, _camera(centre, 4.0 + extent_m), version)
+    centre = [(a + b) / 2.0 for a, b in zip(group.lo, group.hi)]
+    extent_m = max(b - a for a, b in zip(group.lo, group.hi)) / 1000.0
+    return markup, _visinfo_xml(vp_guid, list(group.beams), _camera(centre, 4.0 + extent_m), version)
 
 
 def _version(version: str) -> bytes:
@@ -302,11 +350,13 @@ def bcf_archive(
     project_name: str = "",
     snapshots: Mapping[str, bytes] | None = None,
     needs_design: str = "per-storey",
+    gathered: "BcfTopics | None" = None,
 ) -> bytes:
     """The BCF zip (bytes) for the results document ``doc``: a topic per failing or incomplete joint,
     the joints that need design one topic per storey (``needs_design="per-storey"``) or per joint
     (``"per-joint"``), and closed topics for the baseline's resolved issues. ``snapshots`` maps joint
-    id → PNG bytes."""
+    id → PNG bytes. ``gathered``: the topics already gathered from the document's joints (a
+    :class:`BcfTopics` fed while another writer went through them); ``doc["joints"]`` is then not read."""
     if version not in BCF_VERSIONS:
         raise OutputError(f"BCF version {version!r} is not supported (use {' or '.join(BCF_VERSIONS)})")
     if needs_design not in NEEDS_DESIGN_TOPICS:
@@ -318,20 +368,13 @@ def bcf_archive(
     snapshots = snapshots or {}
     entries: list[tuple[str, bytes | None]] = [("bcf.version", _version(version)),
                                                ("project.bcfp", _project(doc, version, project_guid, project_name))]
-    topics: list[tuple[Mapping[str, Any], bool]] = []
-    open_groups: dict[str, list[Mapping[str, Any]]] = {}
-    resolved_groups: dict[str, list[Mapping[str, Any]]] = {}
-    for j in doc["joints"]:
-        if j["status"] in ISSUE_STATUSES:
-            if grouped and j["status"] == "needs-design":
-                open_groups.setdefault(j.get("storey") or "", []).append(j)
-            else:
-                topics.append((j, False))
-        elif j.get("baseline") == "resolved":
-            if grouped and j.get("baseline_was") == "needs-design":
-                resolved_groups.setdefault(j.get("storey") or "", []).append(j)
-            else:
-                topics.append((j, True))
+    if gathered is None:
+        gathered = BcfTopics(needs_design)
+        for j in doc["joints"]:
+            gathered.add(j)
+    elif gathered.grouped != grouped:
+        raise OutputError("the BCF topics were gathered for another needs-design grouping")
+    topics, open_groups, resolved_groups = gathered.topics, gathered.open_groups, gathered.resolved_groups
     closed_groups = {st: js for st, js in resolved_groups.items() if st not in open_groups}
     if version == "3.0":
         labels = [x for j, _ in topics for x in _labels(j)]
@@ -346,8 +389,8 @@ def bcf_archive(
             files.append(("snapshot.png", png))
         folders.append((topic_guid(j["id"]), files))
     for groups, closed in ((open_groups, False), (closed_groups, True)):
-        for storey, joints in groups.items():
-            markup, vis = _group_topic(storey, joints, doc, version, date, project_guid, closed)
+        for storey, group in groups.items():
+            markup, vis = _group_topic(storey, group, doc, version, date, project_guid, closed)
             folders.append((storey_topic_guid(storey), [("markup.bcf", markup), ("viewpoint.bcfv", vis)]))
     for folder, files in sorted(folders, key=lambda f: f[0]):
         entries.append((folder + "/", None))
