@@ -320,12 +320,19 @@ def _find_joints(members: Sequence[Member], bearings: Sequence[Bearing],
     s_full = valid_idx[si]
     keep = s_full != em[q]
     q, s_full, dist = q[keep], s_full[keep], dist[keep]
-    pr_all = _classify_pairs(arr, em, ek, q, s_full, dist, tol)
-    ok = pr_all.code != _NONE
-    pr = _Pairs(*(getattr(pr_all, f)[ok] for f in _Pairs.__dataclass_fields__))
+    # the pair tests run on runs of candidate pairs, each run's kept pairs taken at once: the tests'
+    # dozens of intermediate arrays then never exist for every candidate together (tens of MB on a
+    # large model); every test is row by row, so the kept pairs are the same
+    fields = tuple(_Pairs.__dataclass_fields__)
+    runs = []
+    for i in range(0, max(len(q), 1), _PAIR_RUN):
+        part = _classify_pairs(arr, em, ek, q[i:i + _PAIR_RUN], s_full[i:i + _PAIR_RUN], dist[i:i + _PAIR_RUN], tol)
+        ok = part.code != _NONE
+        runs.append([getattr(part, f)[ok] for f in fields])
+    pr = _Pairs(*(np.concatenate([r[k] for r in runs]) for k in range(len(fields))))
     # the grid and every candidate pair (many times the pairs kept) are done with: freed now, not
     # held through the making of the joints, where the finder's memory peaks
-    del grid, q, si, dist, s_full, keep, pr_all, ok
+    del grid, q, si, dist, s_full, keep, runs, part, ok
     give_back_free_memory()  # engine.memory: the scratch of the pair tests leaves the process
 
     # continuation map: (member, end) -> members continuing collinear from that end
@@ -948,6 +955,7 @@ def _partner_facts(arr: MemberArrays, members: list[Member], em: np.ndarray, f: 
 
 
 _RUN = 4096  # joints made at a time by _build_joints
+_PAIR_RUN = 65536  # candidate pairs tested at a time by _find_joints
 
 
 def _build_joints(arr: MemberArrays, members: list[Member], bearings: list[Bearing], em: np.ndarray,

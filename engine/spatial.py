@@ -23,6 +23,7 @@ __all__ = ["SegmentGrid", "points_in_boxes", "point_segment_distance"]
 _OFFSETS = np.array([(i, j, k) for i in (-1, 0, 1) for j in (-1, 0, 1) for k in (-1, 0, 1)],
                     dtype=np.int64)
 _STEPS = np.array([-1, 0, 1], dtype=np.int64)
+_BUILD_RUN = 4096  # segments sampled at a time by SegmentGrid.build
 
 
 def point_segment_distance(p: np.ndarray, a: np.ndarray, b: np.ndarray) -> np.ndarray:
@@ -68,16 +69,22 @@ class SegmentGrid:
         if len(a) == 0:
             return cls(cell, origin, dims, np.zeros(0, np.int64), np.zeros(1, np.int64),
                        np.zeros(0, np.int64), a, b)
-        length = np.linalg.norm(b - a, axis=1)
         spacing = cell / 2.0
-        n_samples = np.ceil(length / spacing).astype(np.int64) + 1
-        seg = np.repeat(np.arange(len(a), dtype=np.int64), n_samples)
-        first = np.repeat(np.cumsum(n_samples) - n_samples, n_samples)
-        k = np.arange(len(seg), dtype=np.int64) - first
-        frac = k / np.maximum(n_samples[seg] - 1, 1)
-        samples = a[seg] + (b[seg] - a[seg]) * frac[:, None]
-        keys = cls._key(np.floor((samples - origin) / cell).astype(np.int64), dims)
-        pair = _sorted_unique(keys * np.int64(len(a)) + seg)
+        n = np.int64(len(a))
+        # the samples of a run of segments at a time: all at once they are many times the index
+        # (the joint finder's peak memory on a large model); the (cell, segment) pairs are the same
+        runs = []
+        for c0 in range(0, len(a), _BUILD_RUN):
+            a_r, b_r = a[c0:c0 + _BUILD_RUN], b[c0:c0 + _BUILD_RUN]
+            n_samples = np.ceil(np.linalg.norm(b_r - a_r, axis=1) / spacing).astype(np.int64) + 1
+            seg = np.repeat(np.arange(len(a_r), dtype=np.int64), n_samples)
+            first = np.repeat(np.cumsum(n_samples) - n_samples, n_samples)
+            k = np.arange(len(seg), dtype=np.int64) - first
+            frac = k / np.maximum(n_samples[seg] - 1, 1)
+            samples = a_r[seg] + (b_r[seg] - a_r[seg]) * frac[:, None]
+            keys = cls._key(np.floor((samples - origin) / cell).astype(np.int64), dims)
+            runs.append(_sorted_unique(keys * n + (seg + c0)))
+        pair = _sorted_unique(np.concatenate(runs))
         keys = pair // np.int64(len(a))
         items = pair % np.int64(len(a))
         first_idx = np.flatnonzero(np.r_[True, keys[1:] != keys[:-1]])

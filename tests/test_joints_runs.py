@@ -1,5 +1,6 @@
-"""The joint finder makes its joints a run at a time (engine.joints._RUN, to bound its peak
-memory): the joints must not depend on where the runs are cut. Checked on the demo model and on
+"""The joint finder works a run at a time (engine.joints._RUN joints, _PAIR_RUN candidate pairs,
+engine.spatial._BUILD_RUN segments, to bound its peak memory): the joints must not depend on
+where the runs are cut. Checked on the demo model and on
 synthetic frames of both modelling conventions, cut into runs of 1, 7 and the default."""
 
 from __future__ import annotations
@@ -36,5 +37,21 @@ def test_joints_of_a_synthetic_frame_do_not_depend_on_the_run_length(monkeypatch
     members = synthetic_frame(600, convention=convention)
     whole = _finding(members)
     monkeypatch.setattr(joints_module, "_RUN", 7)
+    monkeypatch.setattr(joints_module, "_PAIR_RUN", 5)  # candidate pairs tested a few at a time too
     assert _finding(members) == whole
     assert len(whole[0]) > 500
+
+
+def test_the_grid_does_not_depend_on_how_many_segments_are_sampled_at_a_time(monkeypatch):
+    import numpy as np
+
+    import engine.spatial as spatial
+
+    rng = np.random.default_rng(3)
+    a = rng.uniform(0, 30000, (500, 3))
+    b = a + rng.normal(0, 4000, (500, 3))
+    whole = spatial.SegmentGrid.build(a, b, 700.0)
+    monkeypatch.setattr(spatial, "_BUILD_RUN", 3)
+    runs = spatial.SegmentGrid.build(a, b, 700.0)
+    for name in ("keys", "starts", "items"):
+        assert np.array_equal(getattr(whole, name), getattr(runs, name))
