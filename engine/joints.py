@@ -752,17 +752,18 @@ class _JointFacts:
 
     sel: np.ndarray               # end index of each joint
     rows: np.ndarray              # candidate row of each joint
-    s: list[int]                  # support member
+    s: np.ndarray                 # support member
     kind: list[str | None]
-    angle: list[float]
-    gap: list[float]
-    tos: list[float]
+    angle: np.ndarray
+    gap: np.ndarray
+    tos: np.ndarray               # NaN: not assessed
     copes: dict[int, tuple[Cope, ...]]
     cont: list[bool | None]       # support continuous through the joint (None: not assessed)
     via: list[str | None]
-    h_before: list[float | None]
-    h_after: list[float | None]
+    h_before: np.ndarray          # support length either side, where continuity is assessed
+    h_after: np.ndarray
     partner: dict[int, int]       # joint -> back-to-back joint (positions in these lists)
+    cont_kind: np.ndarray         # continuity assessed (h_before, h_after meaningful)
 
 
 def _joint_facts(arr: MemberArrays, em: np.ndarray, ek: np.ndarray, pr: _Pairs, row_of: np.ndarray,
@@ -845,15 +846,12 @@ def _joint_facts(arr: MemberArrays, em: np.ndarray, ek: np.ndarray, pr: _Pairs, 
     cont_kind_l = cont_kind.tolist()
     cont_l = [c if k else None for c, k in zip(cont_flag.tolist(), cont_kind_l)]
     via = [v if k else None for v, k in zip(via, cont_kind_l)]
-    hb_l = [h if k else None for h, k in zip(h_before.tolist(), cont_kind_l)]
-    ha_l = [h if k else None for h, k in zip(h_after.tolist(), cont_kind_l)]
 
     kind_code = np.where(is_col, np.where(pr.flange[rows], _K_FLANGE, _K_WEB), _KIND_CODE[codes])
     kind_code[arr.role[b] == _BRACE] = _K_UNKNOWN
     partner = _back_to_back(kind_code, s, pos, pr.side[rows], tol)
-    return _JointFacts(sel, rows, s.tolist(), [_KIND_NAMES[k] for k in kind_code.tolist()],
-                       angle.tolist(), gaps.tolist(), tos.tolist(), copes, cont_l, via, hb_l, ha_l,
-                       partner)
+    return _JointFacts(sel, rows, s, [_KIND_NAMES[k] for k in kind_code.tolist()],
+                       angle, gaps, tos, copes, cont_l, via, h_before, h_after, partner, cont_kind)
 
 
 def _first_continuation(cont: dict[tuple[int, int], set[int]], ids: Sequence[str], m: np.ndarray,
@@ -924,7 +922,7 @@ def _back_to_back(kind_code: np.ndarray, s: np.ndarray, pos: np.ndarray, side: n
 
 
 def _partner_facts(arr: MemberArrays, members: list[Member], em: np.ndarray, f: _JointFacts,
-                   b_l: list[int], labels: list[str], tol: Tolerances
+                   b_l: np.ndarray, labels: list[str], tol: Tolerances
                    ) -> tuple[list[str | None], list[float | None], list[bool | None]]:
     """Per joint: the back-to-back beam's label, the span ratio (longer / shorter) and whether the
     two are similar (span and depth within ``balance_ratio``); ``None`` without a partner."""
@@ -942,11 +940,11 @@ def _partner_facts(arr: MemberArrays, members: list[Member], em: np.ndarray, f: 
     depth_l = [m.section.depth for m in members]
     dr_of: dict[tuple[float | None, float | None], float] = {}
     br = tol.balance_ratio
-    for i, pi, ratio in zip(me.tolist(), other.tolist(), spans):
-        bp = b_l[pi]
+    b_me, b_other = b_l[me].tolist(), b_l[other].tolist()
+    for i, bi, bp, ratio in zip(me.tolist(), b_me, b_other, spans):
         p_label[i] = labels[bp]
         p_ratio[i] = ratio
-        d1, d2 = depth_l[b_l[i]], depth_l[bp]
+        d1, d2 = depth_l[bi], depth_l[bp]
         dr = dr_of.get((d1, d2))
         if dr is None:
             dr = dr_of[(d1, d2)] = _ratio(d1, d2) if d1 and d2 else 1.0
@@ -967,31 +965,27 @@ def _build_joints(arr: MemberArrays, members: list[Member], bearings: list[Beari
     f = _joint_facts(arr, em, ek, pr, row_of, via_of, choices, cont, tol)
     ids = arr.ids
     n = len(f.sel)
-    b_l = em[f.sel].tolist()
-    k_l = ek[f.sel].tolist()
-    s_l = f.s
+    # per joint: beam member, end (0/1), support member — numpy here, Python lists a run at a time
+    b_a, k_a, s_a = em[f.sel], ek[f.sel], f.s
     labels = [m.label for m in members]
     length_l = arr.length.tolist()
-    jid = [joint_id(ids[bi], _ENDS[k], ids[si]) for bi, k, si in zip(b_l, k_l, s_l)]
+    jid = [joint_id(ids[bi], _ENDS[k], ids[si]) for bi, k, si in zip(b_a.tolist(), k_a.tolist(), s_a.tolist())]
 
-    p_label, p_ratio, p_similar = _partner_facts(arr, members, em, f, b_l, labels, tol)
+    p_label, p_ratio, p_similar = _partner_facts(arr, members, em, f, b_a, labels, tol)
 
-    unknown = [k == "unknown" for k in f.kind]
-    sup_label = [labels[si] for si in s_l]
-    inferred_l = pr.inferred[f.rows].tolist()
     is_i_l = arr.is_i.tolist()
     role_l = arr.role.tolist()
-    e_l = f.sel.tolist()
     source = ["geometry"] * n
     notes: dict[int, list[str]] = {}  # joint -> the model's relation and notes, in reason order
     if choices:
-        at = {e: i for i, e in enumerate(e_l)}
+        at = {e: i for i, e in enumerate(f.sel.tolist())}
         for e_idx, ch in choices.items():
             i = at.get(e_idx)
             if i is None:
                 continue
             source[i] = ch.source
             notes[i] = ch.notes
+        del at
     via_at = {i for i, (v, c) in enumerate(zip(f.via, f.cont)) if v and c}
     gidx = {g: m for m, g in enumerate(ids)} if via_at else {}
     partner_id: list[str | None] = [None] * n
@@ -1006,57 +1000,64 @@ def _build_joints(arr: MemberArrays, members: list[Member], bearings: list[Beari
     texts: dict[str, str] = {}
     share = texts.setdefault
     joints: list[Joint] = []
-    # The joints are made a run at a time: the per-joint lists of a stage (verdicts, reason texts,
-    # locations) then live for one run, not for all joints at once, which set the finder's peak memory.
+    # The joints are made a run at a time: the per-joint lists of a stage (facts, verdicts, reason
+    # texts, locations) then live for one run, not for all joints at once, which set the finder's
+    # peak memory.
     for c0 in range(0, n, _RUN):
         c1 = min(n, c0 + _RUN)
         part = slice(c0, c1)
-        unk = unknown[part]
-        b_p, s_p = b_l[part], s_l[part]
+        b_p, k_p, s_p = b_a[part].tolist(), k_a[part].tolist(), s_a[part].tolist()
         kind_p = f.kind[part]
+        unk = [k == "unknown" for k in kind_p]
+        sup_p = [labels[si] for si in s_p]
+        ck = f.cont_kind[part].tolist()
+        hb_p = [h if k else None for h, k in zip(f.h_before[part].tolist(), ck)]
+        ha_p = [h if k else None for h, k in zip(f.h_after[part].tolist(), ck)]
+        angle_p, gap_p, tos_p = f.angle[part].tolist(), f.gap[part].tolist(), f.tos[part].tolist()
+        inferred_p = pr.inferred[f.rows[part]].tolist()
         ratios = relative_stiffness_batch(kind_p, [members[bi].section for bi in b_p],
                                           [members[si].section for si in s_p],
-                                          [length_l[bi] for bi in b_p], f.h_before[part], f.h_after[part])
+                                          [length_l[bi] for bi in b_p], hb_p, ha_p)
         verdicts = classify_batch(
-            kind_p, sup_label[part], [None if u else c for u, c in zip(unk, f.cont[part])],
+            kind_p, sup_p, [None if u else c for u, c in zip(unk, f.cont[part])],
             [None if u else p for u, p in zip(unk, p_label[part])],
             [None if u else p for u, p in zip(unk, p_similar[part])],
             [None if u else p for u, p in zip(unk, p_ratio[part])],
-            [True if u else not inf for u, inf in zip(unk, inferred_l[part])],
+            [True if u else not inf for u, inf in zip(unk, inferred_p)],
             [True if u else is_i_l[si] for u, si in zip(unk, s_p)], ratios, policy)
         # reasons: what the end meets, then the model's relation and notes, continuity, partner, copes
-        rows = f.rows[c0:c1]
+        rows = f.rows[part]
         reasons_p = _kind_reasons_all(
-            pr.code[rows].tolist(), kind_p, pr.flange[rows].tolist(), inferred_l[part], pr.node[rows].tolist(),
-            pr.at_tips[rows].tolist(), pr.sd[rows].tolist(), [role_l[bi] == _BRACE for bi in b_p], f.gap[part],
-            f.angle[part], sup_label[part], [members[si].role for si in s_p], tol)
-        loc_p = arr.end_point(em[f.sel[c0:c1]], ek[f.sel[c0:c1]], centroid=False).tolist()
+            pr.code[rows].tolist(), kind_p, pr.flange[rows].tolist(), inferred_p, pr.node[rows].tolist(),
+            pr.at_tips[rows].tolist(), pr.sd[rows].tolist(), [role_l[bi] == _BRACE for bi in b_p], gap_p,
+            angle_p, sup_p, [members[si].role for si in s_p], tol)
+        loc_p = arr.end_point(em[f.sel[part]], ek[f.sel[part]], centroid=False).tolist()
         for j in range(c1 - c0):
             i = c0 + j
             rsn = reasons_p[j]
             if kind_p[j] == "column-web":
-                rsn += _web_clearance(members[b_l[i]], members[s_l[i]], is_i_l[s_l[i]])
+                rsn += _web_clearance(members[b_p[j]], members[s_p[j]], is_i_l[s_p[j]])
             if i in notes:
                 if source[i] != "geometry":
                     rsn.insert(0, f"from the model's {source[i]}")
                 rsn += notes[i]
             if i in via_at:
-                rsn.append(f"{sup_label[i]} continues through the joint as {labels[gidx[f.via[i]]]}")
+                rsn.append(f"{sup_p[j]} continues through the joint as {labels[gidx[f.via[i]]]}")
             if partner_id[i] is not None:
                 rsn.append(f"back-to-back with {p_label[i]} on the other side (joint {partner_id[i]}, "
                            f"span ratio {p_ratio[i]:.2f})")
             for c in copes[i]:
                 rsn.append(f"{c.where} cope {c.depth:.0f} deep × {c.length:.0f} long required "
-                           f"to clear the flange of {sup_label[i]}")
+                           f"to clear the flange of {sup_p[j]}")
             st, rs = verdicts[j]
-            tos = f.tos[i]
-            joints.append(Joint(jid[i], ids[b_l[i]], _ENDS[k_l[i]], ids[s_l[i]], kind_p[j],
-                                JointGeometry(tuple(loc_p[j]), f.angle[i], f.gap[i], None if tos != tos else tos,
+            tos = tos_p[j]
+            joints.append(Joint(jid[i], ids[b_p[j]], _ENDS[k_p[j]], ids[s_p[j]], kind_p[j],
+                                JointGeometry(tuple(loc_p[j]), angle_p[j], gap_p[j], None if tos != tos else tos,
                                               copes[i], f.cont[i], partner_id[i]),
                                 st, tuple([share(r, r) for r in rsn] + [share(r, r) for r in rs]), source[i]))
     if all(ch.row is not None for ch in choices.values()):
         return joints, f.sel
-    joint_at = dict(zip(e_l, joints))
+    joint_at: dict[int, Joint] = {}  # the ends without a member support: free ends, walls
     free: tuple[str, tuple[str, ...]] | None = None
     for e_idx, ch in choices.items():
         if ch.row is not None:
@@ -1083,8 +1084,17 @@ def _build_joints(arr: MemberArrays, members: list[Member], bearings: list[Beari
         joint_at[e_idx] = Joint(joint_id(gid, endname, bb.global_id), gid, endname, bb.global_id,
                                 "wall", JointGeometry(location=loc, gap=float(ch.wall_gap)), st,
                                 tuple(reasons) + rs, ch.source)
-    order = sorted(joint_at)
-    return [joint_at[e] for e in order], np.array(order, dtype=np.int64)
+    # merged into the member joints in end order (an end is one or the other: row_of < 0 for these)
+    extra = np.array(sorted(joint_at), dtype=np.int64)
+    member_ends = f.sel
+    if np.isin(extra, member_ends).any():  # not expected: the wall or free end replaces the member joint
+        keep = ~np.isin(member_ends, extra)
+        joints = [jt for jt, k in zip(joints, keep.tolist()) if k]
+        member_ends = member_ends[keep]
+    ends = np.concatenate([member_ends, extra])
+    order = np.argsort(ends, kind="stable")
+    every = joints + [joint_at[e] for e in extra.tolist()]
+    return [every[i] for i in order.tolist()], ends[order]
 
 
 def _ratio(a: float | None, b: float | None) -> float:
