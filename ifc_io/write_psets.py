@@ -19,40 +19,19 @@ precedence.
 
 from __future__ import annotations
 
-import binascii
-import hashlib
-import uuid
 from typing import Any, Iterable, Mapping
 
 import ifcopenshell
 
+from engine.pset_text import NAMESPACE, PSET_BY_END, PSET_NAMES, derived_guid, pset_properties
+
 __all__ = ["PSET_BY_END", "PSET_NAMES", "write_joint_psets", "remove_joint_psets", "remove_all_joint_psets",
            "read_joint_psets", "iter_joint_beams"]
 
-PSET_BY_END = {"start": "JointAudit_Start", "end": "JointAudit_End"}
-PSET_NAMES = frozenset(PSET_BY_END.values())
-_NS = uuid.UUID("6b1f3c52-8d0e-4d59-9d7b-2f0a3c1e9a41")  # joint-audit's own namespace for derived ids
-
-
-_IFC64 = "0123456789ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz_$"
-_NS_BYTES = _NS.bytes
-# standard base-64 digits → the IFC alphabet (same order of values, other characters)
-_TO_IFC64 = bytes.maketrans(b"ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz0123456789+/", _IFC64.encode("ascii"))
-
-
-def _guid(*parts: str) -> str:
-    """A GlobalId derived from ``parts``: the name-based UUID (RFC 4122 version 5, SHA-1, in our
-    namespace) of ``"|".join(parts)``, in the IFC 22-character base-64 form — the same value as
-    ``ifcopenshell.guid.compress(uuid.uuid5(_NS, name).hex)``, computed without building UUID
-    objects (this runs twice per property set on large models).
-
-    The IFC form writes the 128 bits as 22 six-bit digits, the first holding the top 2 bits. Two
-    zero bytes in front make 144 bits, which standard base 64 writes as 24 digits with the same
-    grouping; the first two are zero and are dropped, and the alphabet is translated."""
-    digest = bytearray(hashlib.sha1(_NS_BYTES + "|".join(parts).encode("utf-8")).digest()[:16])
-    digest[6] = (digest[6] & 0x0F) | 0x50  # version 5
-    digest[8] = (digest[8] & 0x3F) | 0x80  # RFC 4122 variant
-    return binascii.b2a_base64(b"\0\0" + digest, newline=False)[2:].translate(_TO_IFC64).decode("ascii")
+# the sets' names, content and derived GlobalIds are defined once, in engine.pset_text
+_NS = NAMESPACE
+_guid = derived_guid
+_properties = pset_properties
 
 
 def _rels_of(element) -> list:
@@ -111,34 +90,6 @@ def _value(model: ifcopenshell.file, ifc_type: str, value: Any):
     return model.create_entity(ifc_type, value)
 
 
-def _properties(joint: Mapping[str, Any], doc: Mapping[str, Any], n_per_force_unit: float) -> list[tuple[str, str, Any]]:
-    """(name, IFC type, value) for one joint's property set; ``None`` values are left out."""
-    demand = joint.get("demand") or {}
-    conn = joint.get("connection") or {}
-    reasons = "; ".join(joint.get("stiffness_reasons") or [])
-    props: list[tuple[str, str, Any]] = [
-        ("JointId", "IfcIdentifier", joint["id"]),
-        ("Status", "IfcLabel", joint["status"]),
-        ("SupportGlobalId", "IfcIdentifier", joint.get("support")),
-        ("JointKind", "IfcLabel", joint.get("kind")),
-        ("SupportStiffness", "IfcLabel", joint.get("stiffness")),
-        ("StiffnessReasons", "IfcText", reasons or None),
-        ("DesignCode", "IfcLabel", doc.get("code")),
-        ("EndShear", "IfcForceMeasure",
-         None if demand.get("V_kN") is None else demand["V_kN"] * 1e3 / n_per_force_unit),
-        ("TieForce", "IfcForceMeasure",
-         None if demand.get("N_kN") is None else demand["N_kN"] * 1e3 / n_per_force_unit),
-        ("ShearSource", "IfcLabel", demand.get("source") or None),
-        ("Connection", "IfcText", conn.get("summary")),
-        ("ConnectionSource", "IfcLabel", conn.get("source")),
-        ("Utilisation", "IfcRatioMeasure", joint.get("utilisation")),
-        ("GoverningCheck", "IfcLabel", joint.get("governing")),
-        ("Missing", "IfcText", "; ".join(joint.get("missing") or []) or None),
-        ("Baseline", "IfcLabel", joint.get("baseline")),
-        ("ToolVersion", "IfcLabel", f"{doc['tool']['name']} {doc['tool']['version']}"),
-        ("AuditDate", "IfcDateTime", (doc.get("run") or {}).get("date") or None),
-    ]
-    return [(n, t, v) for n, t, v in props if v is not None]
 
 
 def iter_joint_beams(model: ifcopenshell.file, doc: Mapping[str, Any], statuses: Iterable[str]):

@@ -23,7 +23,6 @@ precedence.
 
 from __future__ import annotations
 
-import math
 import os
 import re
 import shutil
@@ -31,55 +30,12 @@ from typing import Any, Iterable, Iterator, Mapping, NamedTuple
 
 import ifcopenshell
 
-from engine.errors import OutputError
-from engine.memo import BoundedMemo
-from ifc_io.write_psets import (PSET_BY_END, _guid, _owner_history, _properties, iter_joint_beams,
-                                remove_all_joint_psets)
+from engine.pset_text import (PSET_STATUSES, append_before_end, newline_of, pset_blocks, step_real,
+                              step_string)
+from ifc_io.write_psets import _owner_history, iter_joint_beams, remove_all_joint_psets
 
 __all__ = ["step_string", "step_real", "iter_joint_pset_lines", "ModelCopy", "prepare_model_copy",
            "copy_input_verbatim", "append_joint_psets", "write_model_with_psets"]
-
-_DESCRIPTION = "joint-audit result for this beam end (an aid to a competent engineer; check it)"
-
-
-_NOT_PLAIN = re.compile(r"[^\x20-\x7E]")
-
-
-def _encode_char(m: re.Match) -> str:
-    o = ord(m.group())
-    return f"\\X2\\{o:04X}\\X0\\" if o <= 0xFFFF else f"\\X4\\{o:08X}\\X0\\"
-
-
-def step_string(text: str) -> str:
-    """``text`` as a STEP string literal (ISO 10303-21 §7.3.3), quotes included: apostrophes and
-    backslashes doubled, anything but printable ASCII as ``\\X2\\hhhh\\X0\\`` (or ``\\X4\\`` beyond
-    the basic plane)."""
-    body = text.replace("\\", "\\\\").replace("'", "''")
-    if not (body.isascii() and body.isprintable()):
-        body = _NOT_PLAIN.sub(_encode_char, body)
-    return "'" + body + "'"
-
-
-def step_real(value: float) -> str:
-    """A float as a STEP real: always with a decimal point, exponent as ``E``."""
-    if not math.isfinite(value):
-        raise OutputError(f"cannot write a non-finite number ({value!r}) into the IFC output")
-    s = repr(float(value)).upper()
-    mant, _, exp = s.partition("E")
-    if "." not in mant:
-        mant += "."
-    return mant + ("E" + exp if exp else "")
-
-
-def _typed(model_schema: str, ifc_type: str, value: Any) -> str:
-    if model_schema == "IFC2X3" and ifc_type == "IfcDateTime":
-        ifc_type = "IfcLabel"
-    name = ifc_type.upper()
-    if isinstance(value, bool):
-        return f"{name}(.{'T' if value else 'F'}.)"
-    if isinstance(value, (int, float)) and ifc_type not in ("IfcLabel", "IfcText", "IfcIdentifier"):
-        return f"{name}({step_real(float(value))})"
-    return f"{name}({step_string(str(value))})"
 
 
 def iter_joint_pset_lines(
@@ -88,7 +44,7 @@ def iter_joint_pset_lines(
     first_id: int,
     *,
     n_per_force_unit: float = 1.0,
-    statuses: Iterable[str] = ("pass", "fail", "needs-design", "incomplete"),
+    statuses: Iterable[str] = PSET_STATUSES,
     owner_id: int | None = None,
     counter: list[int] | None = None,
 ) -> Iterator[str]:
@@ -111,55 +67,11 @@ def _pset_blocks(
     counter: list[int] | None,
     sep: str,
 ) -> Iterator[str]:
-    """The lines of :func:`iter_joint_pset_lines`, one text per property set (its properties, the
-    set and its relationship, each line ended by ``sep``): a large model has half a million lines,
-    which one at a time cost more than formatting them."""
-    owner = f"#{owner_id}" if owner_id else "$"
-    schema = model.schema
-    # text already encoded: names, and the values that repeat from joint to joint (statuses, kinds,
-    # sources, the code, the tool, the date, the reasons)
-    typed = BoundedMemo(lambda tv: _typed(schema, *tv))
-    prefix = BoundedMemo(lambda name: f"=IFCPROPERTYSINGLEVALUE({step_string(name)},$,")
-    names = BoundedMemo(step_string)
-    reason = BoundedMemo(lambda r: step_string(r)[1:-1], limit=65536)  # encoded without the quotes
-    described = {name: f"{names[name]},{names[_DESCRIPTION]},(" for name in PSET_BY_END.values()}
-    end_line = ",$);" + sep
-    # a whole line but its number, for the (name, type, value) that repeat
-    tail = BoundedMemo(lambda ntv: f"{prefix[ntv[0]]}{typed[ntv[1:]]}{end_line}")
-    n = first_id
-    for joint, beam, pset_name in iter_joint_beams(model, doc, statuses):
-        first = n
-        parts: list[str] = []
-        add = parts.append
-        for name, ifc_type, value in _properties(joint, doc, n_per_force_unit):
-            if name == "StiffnessReasons":
-                # STEP encoding works character by character, so the joined text encodes as the
-                # join of its encoded parts; the reasons repeat from joint to joint
-                add(f"#{n}{prefix[name]}IFCTEXT('{'; '.join([reason[r] for r in joint['stiffness_reasons']])}')"
-                    f"{end_line}")
-            elif ifc_type in _UNIQUE_TYPES:
-                add(f"#{n}{prefix[name]}{_UNIQUE_TYPES[ifc_type](value)}{end_line}")
-            else:
-                add(f"#{n}{tail[(name, ifc_type, value)]}")
-            n += 1
-        gid = joint["beam"]  # the beam's GlobalId: iter_joint_beams found the beam by it
-        members = ",".join([f"#{i}" for i in range(first, n)])
-        add(f"#{n}=IFCPROPERTYSET({step_string(_guid(gid, pset_name))},{owner},{described[pset_name]}{members}));{sep}"
-            f"#{n + 1}=IFCRELDEFINESBYPROPERTIES({step_string(_guid(gid, pset_name, 'rel'))},{owner},$,$,"
-            f"(#{beam.id()}),#{n});{sep}")
-        n += 2
-        if counter is not None:
-            counter[0] += 1
-        yield "".join(parts)
-
-
-# values that differ from joint to joint, not worth remembering: their encoders (as _typed)
-_UNIQUE_TYPES: dict[str, Any] = {
-    "IfcText": lambda v: f"IFCTEXT({step_string(str(v))})",
-    "IfcIdentifier": lambda v: f"IFCIDENTIFIER({step_string(str(v))})",
-    "IfcForceMeasure": lambda v: f"IFCFORCEMEASURE({step_real(float(v))})",
-    "IfcRatioMeasure": lambda v: f"IFCRATIOMEASURE({step_real(float(v))})",
-}
+    """The lines of :func:`iter_joint_pset_lines`, one text per property set
+    (:func:`engine.pset_text.pset_blocks` on the joints whose beams are in ``model``)."""
+    rows = ((joint, beam.id(), joint["beam"], name) for joint, beam, name in iter_joint_beams(model, doc, statuses))
+    return pset_blocks(rows, doc, first_id, model.schema, n_per_force_unit=n_per_force_unit, owner_id=owner_id,
+                       counter=counter, sep=sep)
 
 
 _TAIL = 1 << 16  # the end of the DATA section is looked for in the file's last 64 KiB
@@ -240,31 +152,10 @@ def append_joint_psets(
     after :func:`prepare_model_copy`, which gave ``first_id`` and ``owner_id``); returns the number
     of sets. The new lines go in place of the file's closing ``ENDSEC;`` and are streamed to disk in
     batches: neither the written model nor the property sets are ever held whole in memory."""
-    with open(path, "r+b") as fh:
-        head = fh.read(2000)
-        nl = b"\r\n" if b"\r\n" in head else b"\n"
-        size = fh.seek(0, 2)
-        start = max(0, size - _TAIL)
-        fh.seek(start)
-        tail = fh.read()
-        end = tail.rfind(b"ENDSEC;")
-        if end < 0 or b"DATA;" in tail[end:]:
-            raise OutputError(f"the IFC written to {path} has no DATA section to add the results to")
-        closing = tail[end:]
-        fh.seek(start + end)
-        fh.truncate()
-        counter = [0]
-        batch: list[str] = []
-        for block in _pset_blocks(model, doc, first_id, n_per_force_unit=n_per_force_unit,
-                                  statuses=("pass", "fail", "needs-design", "incomplete"), owner_id=owner_id,
-                                  counter=counter, sep=nl.decode("ascii")):
-            batch.append(block)
-            if len(batch) >= 2000:
-                fh.write("".join(batch).encode("ascii"))
-                batch = []
-        if batch:
-            fh.write("".join(batch).encode("ascii"))
-        fh.write(closing)
+    counter = [0]
+    append_before_end(path, _pset_blocks(model, doc, first_id, n_per_force_unit=n_per_force_unit,
+                                         statuses=PSET_STATUSES, owner_id=owner_id, counter=counter,
+                                         sep=newline_of(path)))
     return counter[0]
 
 
