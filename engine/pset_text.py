@@ -2,9 +2,8 @@
 
 What the sets hold is defined here once (:func:`pset_properties`): ``ifc_io.write_psets`` creates
 them as entities in an open model (the plug-in path), and the command line writes them as STEP lines
-appended to the audited copy (:func:`pset_blocks`, :func:`append_before_end`) — in a separate small
-process on large models (:mod:`engine.pset_worker`), which is why this module needs nothing but the
-standard library.
+appended to the audited copy (:func:`pset_blocks`, :func:`append_before_end`, through
+``ifc_io.write_psets_text``). Nothing here needs IfcOpenShell: the text is the text.
 
 STEP strings are encoded per ISO 10303-21 (apostrophes and backslashes doubled, anything other than
 printable ASCII as ``\\X2\\…\\X0\\`` / ``\\X4\\…\\X0\\``). Derived GlobalIds are the name-based
@@ -29,8 +28,7 @@ from engine.errors import OutputError
 from engine.memo import BoundedMemo
 
 __all__ = ["PSET_BY_END", "PSET_NAMES", "PSET_DESCRIPTION", "PSET_STATUSES", "derived_guid", "step_string",
-           "step_real", "typed_value", "pset_properties", "pset_blocks", "append_before_end", "wire_row",
-           "joint_from_wire"]
+           "step_real", "typed_value", "pset_properties", "pset_blocks", "append_before_end", "newline_of"]
 
 PSET_BY_END = {"start": "JointAudit_Start", "end": "JointAudit_End"}
 PSET_NAMES = frozenset(PSET_BY_END.values())
@@ -223,29 +221,3 @@ def append_before_end(path: str | os.PathLike[str], texts: Iterable[str | bytes]
                 batch, size_b = [], 0
         fh.write(b"".join(batch))
         fh.write(closing)
-
-
-def wire_row(joint: Mapping[str, Any], beam_id: int) -> tuple:
-    """What :func:`pset_blocks` needs of one joint, as plain values (for :mod:`marshal`, to the
-    worker process): see :func:`joint_from_wire`."""
-    d = joint.get("demand") or {}
-    c = joint.get("connection") or {}
-    return (joint["id"], joint["status"], joint.get("support"), joint.get("kind"), joint.get("stiffness"),
-            list(joint.get("stiffness_reasons") or ()), d.get("V_kN"), d.get("N_kN"), d.get("source"),
-            c.get("summary"), c.get("source"), joint.get("utilisation"), joint.get("governing"),
-            list(joint.get("missing") or ()), joint.get("baseline"), joint["beam"], joint["end"], beam_id)
-
-
-def joint_from_wire(row: tuple) -> tuple[dict[str, Any], int, str, str]:
-    """A :func:`wire_row` back as a :func:`pset_blocks` row: (joint entry with the keys
-    :func:`pset_properties` reads, beam's entity id, beam's GlobalId, set name)."""
-    (jid, status, support, kind, stiffness, reasons, v, n, source, summary, csource, util, governing,
-     missing, baseline, beam, end, beam_id) = row
-    joint = {
-        "id": jid, "status": status, "support": support, "kind": kind, "stiffness": stiffness,
-        "stiffness_reasons": reasons,
-        "demand": None if v is None and n is None and source is None else {"V_kN": v, "N_kN": n, "source": source},
-        "connection": None if summary is None and csource is None else {"summary": summary, "source": csource},
-        "utilisation": util, "governing": governing, "missing": missing, "baseline": baseline,
-    }
-    return joint, beam_id, beam, PSET_BY_END[end]
