@@ -257,36 +257,41 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
         n_per_force_unit = outcome.frame.n_per_force_unit
         copy_task = tasks[0] if tasks else None
 
-        def _add_psets() -> None:  # in a child: once the copy is written, the property sets added to it
-            if copy_task is not None:
-                copy_task.wait_from_sibling()
-            append_joint_psets(model, outcome.document(stream=True), ifc_tmp, first_id, owner_id,
-                               n_per_force_unit=n_per_force_unit)
-
-        # started now, so the main process goes on with the other outputs while the copy is finished
-        tasks.append(BackgroundTask(_add_psets))
-        # The results document is made one joint at a time, never held whole (a large model's is
-        # tens of megabytes): as results.json is written, each joint also goes to the CSV schedule,
-        # the issue list and the BCF topics, which keep only what they need from it.
-        doc = outcome.document(stream=True)
-        issues, topics = IssueList(), BcfTopics(needs_design_topics)
         csv_tmp = new_temp(targets["schedule"])
         temps.append((csv_tmp, targets["schedule"]))
-        with open(csv_tmp, "w", encoding="utf-8", newline="") as csv_fh:
-            rows = csv.writer(csv_fh, lineterminator="\n")
 
-            def _to_schedule(j: dict[str, Any]) -> None:
+        def _model_and_schedule() -> None:
+            # in a child, with a results document of its own made one joint at a time: once the
+            # copy is written, the property sets added to it and the CSV schedule, in one pass
+            if copy_task is not None:
+                copy_task.wait_from_sibling()
+            own = outcome.document(stream=True)
+
+            def _schedule(do: Callable[[], object]) -> None:
                 try:
-                    rows.writerow(schedule_row(j))
+                    do()
                 except OSError as exc:
                     raise OutputError(f"cannot write {targets['schedule']}: {exc.strerror or exc}") from None
 
-            try:
-                rows.writerow(SCHEDULE_COLUMNS)
-            except OSError as exc:
-                raise OutputError(f"cannot write {targets['schedule']}: {exc.strerror or exc}") from None
-            tapped = dict(doc, joints=_tapped(doc["joints"], (_to_schedule, issues.add, topics.add)))
-            temps += write_temps([(targets["results"], parts_writer(_results_json(tapped)))])
+            with open(csv_tmp, "w", encoding="utf-8", newline="") as csv_fh:
+                rows = csv.writer(csv_fh, lineterminator="\n")
+                _schedule(lambda: rows.writerow(SCHEDULE_COLUMNS))
+                entries = _tapped(own["joints"], (lambda j: _schedule(lambda: rows.writerow(schedule_row(j))),))
+                try:
+                    append_joint_psets(model, dict(own, joints=entries), ifc_tmp, first_id, owner_id,
+                                       n_per_force_unit=n_per_force_unit)
+                except OSError as exc:
+                    raise OutputError(f"cannot write {targets['ifc']}: {exc.strerror or exc}") from None
+
+        # started now, so the main process goes on with the other outputs at the same time
+        tasks.append(BackgroundTask(_model_and_schedule))
+        # The results document is made one joint at a time, never held whole (a large model's is
+        # tens of megabytes): as results.json is written, each joint also goes to the issue list and
+        # the BCF topics, which keep only what they need from it.
+        doc = outcome.document(stream=True)
+        issues, topics = IssueList(), BcfTopics(needs_design_topics)
+        tapped = dict(doc, joints=_tapped(doc["joints"], (issues.add, topics.add)))
+        temps += write_temps([(targets["results"], parts_writer(_results_json(tapped)))])
         drawings, symbols = issue_drawings(outcome.results, outcome.members)
         # BCF snapshots of the connections that exist (a joint that needs design has nothing to show)
         snapshots = {r.joint.id: to_png(elevation_for(r, outcome.members[r.joint.beam]))
