@@ -59,6 +59,7 @@ def derived_guid(*parts: str) -> str:
 
 
 _NOT_PLAIN = re.compile(r"[^\x20-\x7E]")
+_PLAIN = re.compile(r"[0-9A-Za-z_$ .:\-]*")  # printable, and neither an apostrophe nor a backslash
 
 
 def _encode_char(m: re.Match) -> str:
@@ -70,6 +71,8 @@ def step_string(text: str) -> str:
     """``text`` as a STEP string literal (ISO 10303-21 §7.3.3), quotes included: apostrophes and
     backslashes doubled, anything but printable ASCII as ``\\X2\\hhhh\\X0\\`` (or ``\\X4\\`` beyond
     the basic plane)."""
+    if _PLAIN.fullmatch(text):  # ids, GlobalIds, names: nothing to double or encode
+        return "'" + text + "'"
     body = text.replace("\\", "\\\\").replace("'", "''")
     if not (body.isascii() and body.isprintable()):
         body = _NOT_PLAIN.sub(_encode_char, body)
@@ -101,23 +104,23 @@ def typed_value(model_schema: str, ifc_type: str, value: Any) -> str:
 
 
 def pset_properties(joint: Mapping[str, Any], doc: Mapping[str, Any], n_per_force_unit: float) -> list[tuple[str, str, Any]]:
-    """(name, IFC type, value) for one joint's property set (a results-document entry); ``None``
-    values are left out. Forces in the model's force unit (``n_per_force_unit`` newtons each)."""
+    """(name, IFC type, value) for one joint's property set (a results-document entry), in this
+    order; ``None`` values are left out. Forces in the model's force unit (``n_per_force_unit``
+    newtons each)."""
     demand = joint.get("demand") or {}
     conn = joint.get("connection") or {}
-    reasons = "; ".join(joint.get("stiffness_reasons") or [])
-    props: list[tuple[str, str, Any]] = [
+    v_kn, n_kn = demand.get("V_kN"), demand.get("N_kN")
+    run = doc.get("run") or {}
+    props = (
         ("JointId", "IfcIdentifier", joint["id"]),
         ("Status", "IfcLabel", joint["status"]),
         ("SupportGlobalId", "IfcIdentifier", joint.get("support")),
         ("JointKind", "IfcLabel", joint.get("kind")),
         ("SupportStiffness", "IfcLabel", joint.get("stiffness")),
-        ("StiffnessReasons", "IfcText", reasons or None),
+        ("StiffnessReasons", "IfcText", "; ".join(joint.get("stiffness_reasons") or []) or None),
         ("DesignCode", "IfcLabel", doc.get("code")),
-        ("EndShear", "IfcForceMeasure",
-         None if demand.get("V_kN") is None else demand["V_kN"] * 1e3 / n_per_force_unit),
-        ("TieForce", "IfcForceMeasure",
-         None if demand.get("N_kN") is None else demand["N_kN"] * 1e3 / n_per_force_unit),
+        ("EndShear", "IfcForceMeasure", None if v_kn is None else v_kn * 1e3 / n_per_force_unit),
+        ("TieForce", "IfcForceMeasure", None if n_kn is None else n_kn * 1e3 / n_per_force_unit),
         ("ShearSource", "IfcLabel", demand.get("source") or None),
         ("Connection", "IfcText", conn.get("summary")),
         ("ConnectionSource", "IfcLabel", conn.get("source")),
@@ -126,9 +129,9 @@ def pset_properties(joint: Mapping[str, Any], doc: Mapping[str, Any], n_per_forc
         ("Missing", "IfcText", "; ".join(joint.get("missing") or []) or None),
         ("Baseline", "IfcLabel", joint.get("baseline")),
         ("ToolVersion", "IfcLabel", f"{doc['tool']['name']} {doc['tool']['version']}"),
-        ("AuditDate", "IfcDateTime", (doc.get("run") or {}).get("date") or None),
-    ]
-    return [(n, t, v) for n, t, v in props if v is not None]
+        ("AuditDate", "IfcDateTime", run.get("date") or None),
+    )
+    return [p for p in props if p[2] is not None]
 
 
 # values that differ from joint to joint, not worth remembering: their encoders (as typed_value)
@@ -176,9 +179,10 @@ def pset_blocks(rows: Iterable[tuple[Mapping[str, Any], int, str, str]], doc: Ma
                 add(f"#{n}{tail[(name, ifc_type, value)]}")
             n += 1
         members = ",".join([f"#{i}" for i in range(first, n)])
-        add(f"#{n}=IFCPROPERTYSET({step_string(derived_guid(beam_gid, pset_name))},{owner},{described[pset_name]}"
+        # a derived GlobalId is made of the IFC base-64 digits only: nothing to encode
+        add(f"#{n}=IFCPROPERTYSET('{derived_guid(beam_gid, pset_name)}',{owner},{described[pset_name]}"
             f"{members}));{sep}"
-            f"#{n + 1}=IFCRELDEFINESBYPROPERTIES({step_string(derived_guid(beam_gid, pset_name, 'rel'))},{owner},$,$,"
+            f"#{n + 1}=IFCRELDEFINESBYPROPERTIES('{derived_guid(beam_gid, pset_name, 'rel')}',{owner},$,$,"
             f"(#{beam_id}),#{n});{sep}")
         n += 2
         if counter is not None:
