@@ -8,6 +8,8 @@ from __future__ import annotations
 import ifcopenshell
 import ifcopenshell.validate
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
 from helpers_results import doc, members, result
 from ifc_io.write_psets import read_joint_psets, write_joint_psets
@@ -138,6 +140,24 @@ def test_step_strings_and_reals_are_encoded():
     assert step_real(1e-07) == "1.E-07"
     with pytest.raises(Exception, match="non-finite"):
         step_real(float("nan"))
+
+
+@settings(max_examples=300, deadline=None)
+@given(st.text())
+def test_step_string_quick_path_agrees_with_the_encoding_rules(text):
+    # ISO 10303-21 §7.3.3, applied character by character: apostrophe and backslash doubled,
+    # printable ASCII as is, anything else as \X2\hhhh\X0\ (or \X4\ beyond the basic plane)
+    from engine.pset_text import step_string
+
+    def by_rule(c: str) -> str:
+        if c in "'\\":
+            return c + c
+        if " " <= c <= "~":
+            return c
+        o = ord(c)
+        return f"\\X2\\{o:04X}\\X0\\" if o <= 0xFFFF else f"\\X4\\{o:08X}\\X0\\"
+
+    assert step_string(text) == "'" + "".join(by_rule(c) for c in text) + "'"
 
 
 def test_derived_globalids_equal_ifcopenshells_compressed_uuid5():
