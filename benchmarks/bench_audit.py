@@ -11,15 +11,16 @@ run of this script.
 
 Each measurement runs in a fresh Python process (so peak memory is that process's own maximum
 resident set size); times are wall-clock seconds inside the process, after imports (ifcopenshell for
-the floor; the audit's own modules for the audit). On Linux the audit writes the copy of the model
-in a forked child process while it goes on (``engine.background``): the child's peak resident set
-is printed too ("child MB"). It counts the pages the child shares with the main process (copy on
-write), so main + child would overstate what the two use together; "tree MB" is the peak, sampled
-every 20 ms in a second, untimed run, of the proportional set size of the audit's process and its children together (shared
+the floor; the audit's own modules for the audit). On Linux the audit reads a large model with two
+child processes and writes the property sets and the CSV schedule in a forked child while it writes
+the other outputs (``engine.background``): the children's largest peak resident set is printed too
+("child MB"). It counts the pages a child shares with the main process (copy on write), so main +
+child would overstate what they use together; "tree MB" is the peak, sampled every 20 ms in a second,
+untimed run, of the proportional set size of the audit's process and its children together (shared
 pages split between them: what the machine actually gives the audit). "mem x" is the main process's
-peak over the bare open's, "tree x" the tree's. The synthetic
-frames come from ``samples.synthetic`` (detailed convention, no connections modelled: every shear
-joint needs design, which is the heaviest case for the reports) and are cached in the temp folder.
+peak over the bare open's, "tree x" the tree's. The synthetic frames come from ``samples.synthetic``
+(detailed convention, no connections modelled: every shear joint needs design, which is the heaviest
+case for the reports) and are cached in the temp folder.
 """
 
 from __future__ import annotations
