@@ -160,3 +160,23 @@ def test_a_failed_model_copy_leaves_no_output_and_exits_2(tmp_path, capsys, monk
     err = capsys.readouterr().err
     assert err.count("\n") == 1 and "No space left on device" in err
     assert not out.exists()  # the folder this run made is removed again
+
+
+def test_a_re_audit_written_out_by_ifcopenshell_is_as_deterministic(tmp_path, capsys, monkeypatch):
+    # a model that already holds results is written out by IfcOpenShell (the earlier sets removed),
+    # not copied byte for byte: two runs, forked and in one process, still agree
+    import shutil
+
+    monkeypatch.setattr(ifc_io.library, "now_iso", lambda: "2026-12-05T12:00:00+00:00")
+    assert main(["audit", str(MODEL), *ARGS, "--out", str(tmp_path / "first")]) == 1
+    again = tmp_path / "in" / MODEL.name  # the audited copy, under the input's name
+    again.parent.mkdir()
+    shutil.copyfile(tmp_path / "first" / "demo-ifc4-mm.audited.ifc", again)
+    assert main(["audit", str(again), *ARGS, "--out", str(tmp_path / "forked")]) == 1
+    monkeypatch.setenv("JOINT_AUDIT_SERIAL", "1")
+    assert main(["audit", str(again), *ARGS, "--out", str(tmp_path / "serial")]) == 1
+    capsys.readouterr()
+    forked = _masked(tmp_path / "forked")
+    _compare(forked, _masked(tmp_path / "serial"))
+    assert forked["audited.ifc"] != _masked(tmp_path / "first")["audited.ifc"]  # written out, not copied
+    assert forked["results.json"]["joints"] == _masked(tmp_path / "first")["results.json"]["joints"]
