@@ -289,7 +289,7 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
         # tens of megabytes): as results.json is written, each joint also goes to the issue list and
         # the BCF topics, which keep only what they need from it.
         doc = outcome.document(stream=True)
-        issues, topics = IssueList(), BcfTopics(needs_design_topics)
+        issues, topics = IssueList(str(out), str(targets["report"])), BcfTopics(needs_design_topics)
         tapped = dict(doc, joints=_tapped(doc["joints"], (issues.add, topics.add)))
         temps += write_temps([(targets["results"], parts_writer(_results_json(tapped)))])
         drawings, symbols = issue_drawings(outcome.results, outcome.members)

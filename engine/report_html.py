@@ -27,6 +27,7 @@ from html import escape
 from typing import Any, Iterator, Mapping
 
 from engine.cautions import CAUTION
+from engine.errors import OutputError
 from engine.evaluate import ISSUE_STATUSES
 from engine.memo import BoundedMemo
 
@@ -255,7 +256,8 @@ class IssueList:
     in memory while small and goes to a temporary file beyond that. :meth:`parts` then gives the
     page, once."""
 
-    def __init__(self) -> None:
+    def __init__(self, spool_dir: str | None = None, target: str = "the issue list") -> None:
+        self.target = target  # named in a write error (the spool is written while others are)
         self.others: list[Mapping[str, Any]] = []
         self.nd_held: list[Mapping[str, Any]] | None = None   # rows out of order: sorted at the end
         self.storeys: set[str] = set()
@@ -264,7 +266,8 @@ class IssueList:
         self.n_nd = 0
         self.last_key: tuple | None = None
         self.esc = _escaped()
-        self.spool = tempfile.SpooledTemporaryFile(max_size=_SPOOL_IN_MEMORY, mode="w+", encoding="utf-8")
+        self.spool = tempfile.SpooledTemporaryFile(max_size=_SPOOL_IN_MEMORY, mode="w+", encoding="utf-8",
+                                                   dir=spool_dir)
 
     def add(self, j: Mapping[str, Any]) -> None:
         status = j["status"]
@@ -284,7 +287,10 @@ class IssueList:
         if self.nd_held is not None:
             self.nd_held.append(j)
         else:
-            self.spool.write(_needs_design_row(j, self.esc))
+            try:
+                self.spool.write(_needs_design_row(j, self.esc))
+            except OSError as exc:  # raised while another output is written: say which
+                raise OutputError(f"cannot write {self.target}: {exc.strerror or exc}") from None
 
     def parts(self, doc: Mapping[str, Any], drawings: Mapping[str, Mapping[str, str]], symbols: str) -> Iterator[str]:
         """The page in pieces (see :func:`report_parts`)."""

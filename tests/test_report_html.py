@@ -56,3 +56,21 @@ def test_joints_needing_design_are_escaped_table_rows_without_drawings():
     assert 'data-storey="L1&quot;&gt;&lt;b&gt;"' in html
     assert "flange &lt;b&gt;; web &amp; &#x27;stem&#x27;" in html
     assert "<svg" not in html.split("<main>")[1]  # no drawing for a joint with no connection
+
+
+def test_a_spool_that_cannot_be_written_names_the_issue_list(tmp_path, monkeypatch):
+    # the rows of joints needing design go to a spool beside the outputs while results.json is
+    # written: a failure there must name the issue list, not the file being written at the time
+    import pytest
+
+    import engine.report_html as report_html
+    from engine.errors import OutputError
+
+    monkeypatch.setattr(report_html, "_SPOOL_IN_MEMORY", 1)  # to a file with the first row
+    issues = report_html.IssueList(str(tmp_path / "no-such-folder"), "out/issues.html")
+    row = {"id": "J-1", "status": "needs-design", "kind": "beam-web", "storey": "Level 1", "end": "start",
+           "beam": "B1", "beam_name": "B1", "beam_section": "S", "support": "G1", "support_name": "G1",
+           "support_section": "S", "stiffness": "flexible", "stiffness_reasons": ["why"], "demand": None,
+           "geometry": {"copes": []}, "note": "", "baseline": None, "utilisation": None}
+    with pytest.raises(OutputError, match="out/issues.html"):
+        issues.add(row)
