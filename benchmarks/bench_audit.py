@@ -55,7 +55,7 @@ from engine.cli import main
 import ifc_io, ifc_io.library, ifc_io.write_bcf, ifc_io.write_psets_text, rules, rules.as4100  # noqa: F401
 import engine.report_html, engine.report_drawings, engine.raster, engine.results, engine.background  # noqa: F401
 import engine.atomic, engine.joints, engine.demand, engine.demand_schedule, engine.connections  # noqa: F401
-import ifc_io.connectivity, ifc_io.read_analysis, importlib.readers, importlib.resources.readers  # noqa: F401
+import ifc_io.connectivity, ifc_io.read_analysis, importlib.readers, importlib.resources.readers, engine.pset_worker  # noqa: F401
 # (networkx, shapely and Pillow are not imported here: an audit without a take-down, a graph or a
 # drawn connection does not load them, and importing them would add their memory to the audit's)
 loaded = set(sys.modules)

@@ -15,8 +15,8 @@ from typing import Callable, Iterable, Sequence
 
 from engine.errors import OutputError
 
-__all__ = ["write_atomic", "write_atomic_with", "write_all_atomic", "write_temps", "commit_all", "new_temp",
-           "unlink_quietly", "refuse_input_overwrite", "parts_writer"]
+__all__ = ["write_atomic", "write_atomic_with", "write_all_atomic", "write_temps", "write_prepared", "commit_all",
+           "new_temp", "unlink_quietly", "refuse_input_overwrite", "parts_writer"]
 
 
 def refuse_input_overwrite(target: str | os.PathLike[str], inputs: list[str | os.PathLike[str]]) -> None:
@@ -52,15 +52,21 @@ def _bytes_writer(data: bytes | str) -> Callable[[str], None]:
     return parts_writer((data,))
 
 
-def parts_writer(parts: Iterable[bytes | str]) -> Callable[[str], None]:
+def parts_writer(parts: Iterable[bytes | str], written: Callable[[int], None] | None = None
+                 ) -> Callable[[str], None]:
     """A writer (for :func:`write_all_atomic`) that writes ``parts`` one after the other (text as
     UTF-8), so a large output never has to be held whole in memory. The parts are produced while
-    the file is written: an error in producing them leaves no output, like any other write error."""
+    the file is written: an error in producing them leaves no output, like any other write error.
+    ``written(size)``, if given, is called after each part, once it is in the file (flushed), with
+    the file's size so far: another process may read the file up to there."""
 
     def _write(tmp: str) -> None:
         with open(tmp, "wb") as fh:
             for part in parts:
                 fh.write(part.encode("utf-8") if isinstance(part, str) else part)
+                if written is not None:
+                    fh.flush()
+                    written(fh.tell())
             fh.flush()
             os.fsync(fh.fileno())
 
@@ -120,16 +126,23 @@ def write_temps(
         for t, what in outputs:
             tmp = new_temp(t)
             pairs.append((tmp, Path(t)))
-            writer = what if callable(what) else _bytes_writer(what)
-            try:
-                writer(tmp)
-            except OSError as exc:
-                raise OutputError(f"cannot write {t}: {exc.strerror or exc}") from None
+            write_prepared(tmp, t, what)
     except BaseException:
         for tmp, _ in pairs:
             _unlink(tmp)
         raise
     return pairs
+
+
+def write_prepared(tmp: str, target: str | os.PathLike[str], what: bytes | str | Callable[[str], None]) -> None:
+    """Write ``what`` (bytes, text, or a ``writer(tmp_path)``) into the temporary file ``tmp`` made
+    for ``target`` by :func:`new_temp`; an operating-system error is an :class:`OutputError` naming
+    the target. The caller commits or removes ``tmp``."""
+    writer = what if callable(what) else _bytes_writer(what)
+    try:
+        writer(tmp)
+    except OSError as exc:
+        raise OutputError(f"cannot write {target}: {exc.strerror or exc}") from None
 
 
 def write_all_atomic(

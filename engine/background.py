@@ -1,5 +1,6 @@
-"""Work in a child process while the main process goes on (POSIX ``fork``): the outputs, and half
-of the reading of a large model (``ifc_io.read_members``, whose child returns its members).
+"""Work in a child process while the main process goes on (POSIX ``fork``): the copy of the model
+when IfcOpenShell writes it, and the reading of a large model (``ifc_io.read_members``, whose
+children return their members).
 
 Writing the audited copy of a large model is mostly IfcOpenShell's own serialisation, which holds the
 interpreter for its whole run; the rest of the audit (joints, checks, the issue list, the BCF file,
@@ -121,26 +122,6 @@ class BackgroundTask:
         if kind == b"X":
             raise RuntimeError(f"in the background writer: {message}")
         raise RuntimeError(f"the background writer stopped with status {code}")
-
-    def wait_from_sibling(self) -> None:
-        """In another child forked after this task's (which cannot reap it): wait until this task's
-        process has ended and raise the error it reported, if any. The main process must still
-        :meth:`join` this task: only it learns the exit status (a child killed by a signal reports
-        nothing, and is caught there). Where nothing was forked this is :meth:`join`."""
-        if self._pid is None:
-            self.join()
-            return
-        chunks = []
-        while True:
-            block = os.read(self._fd, 65536)
-            if not block:
-                break
-            chunks.append(block)
-        report = b"".join(chunks)
-        if report[:1] == b"E":
-            raise OutputError(report[1:].decode("utf-8", "replace"))
-        if report[:1] == b"X":
-            raise RuntimeError(f"in the background writer: {report[1:].decode('utf-8', 'replace')}")
 
     def cancel(self) -> None:
         """Stop the task if it is still running (nothing is raised)."""

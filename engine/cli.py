@@ -11,7 +11,6 @@ commands that need it, so the mechanics never import ifcopenshell.
 from __future__ import annotations
 
 import argparse
-import csv
 import dataclasses
 import gc
 import json
@@ -205,14 +204,16 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
     from ifc_io.library import audit_model
     from ifc_io.open import parse_problems
     from ifc_io.write_bcf import BcfTopics, bcf_archive
-    from ifc_io.write_psets_text import append_joint_psets, copy_input_verbatim, prepare_model_copy
+    from ifc_io.write_psets_text import copy_input_verbatim, prepare_model_copy
 
-    from engine.atomic import commit_all, new_temp, parts_writer, refuse_input_overwrite, unlink_quietly, write_temps
+    from engine.atomic import (commit_all, new_temp, parts_writer, refuse_input_overwrite, unlink_quietly,
+                               write_prepared, write_temps)
     from engine.background import BackgroundTask
+    from engine.pset_worker import PsetFeed
     from engine.raster import to_png
     from engine.report_drawings import elevation_for, issue_drawings
     from engine.report_html import IssueList, report_parts
-    from engine.results import SCHEDULE_COLUMNS, read_baseline, schedule_row
+    from engine.results import read_baseline
 
     # the model and the baseline are read before anything is written
     try:
@@ -236,12 +237,14 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
     # are removed. The copy of the model is written while the audit runs (engine.background).
     temps: list[tuple[str, Path]] = []
     tasks: list[BackgroundTask] = []
+    psets: PsetFeed | None = None
     try:
         for t in targets.values():
             refuse_input_overwrite(t, [model_path] + ([baseline_path] if baseline_path else []) + list(schedules))
         first_id, owner_id, as_read = prepare_model_copy(model)
         ifc_tmp = new_temp(targets["ifc"])
         temps.append((ifc_tmp, targets["ifc"]))
+        psets = PsetFeed()  # its process started now: ready by the time the results are
         # The copy of the model: the input file's own text when it holds no earlier results and
         # parsed cleanly (ifc_io.write_psets_text.copy_input_verbatim); else written by a child once
         # the model has been read (a large model is read by two processes: ifc_io.read_members)
@@ -254,44 +257,34 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
                               after_read=None if verbatim else
                               lambda: tasks.append(BackgroundTask(lambda: model.write(ifc_tmp))))
         bar.done()
-        n_per_force_unit = outcome.frame.n_per_force_unit
-        copy_task = tasks[0] if tasks else None
-
         csv_tmp = new_temp(targets["schedule"])
         temps.append((csv_tmp, targets["schedule"]))
-
-        def _model_and_schedule() -> None:
-            # in a child, with a results document of its own made one joint at a time: once the
-            # copy is written, the property sets added to it and the CSV schedule, in one pass
-            if copy_task is not None:
-                copy_task.wait_from_sibling()
-            own = outcome.document(stream=True)
-
-            def _schedule(do: Callable[[], object]) -> None:
-                try:
-                    do()
-                except OSError as exc:
-                    raise OutputError(f"cannot write {targets['schedule']}: {exc.strerror or exc}") from None
-
-            with open(csv_tmp, "w", encoding="utf-8", newline="") as csv_fh:
-                rows = csv.writer(csv_fh, lineterminator="\n")
-                _schedule(lambda: rows.writerow(SCHEDULE_COLUMNS))
-                entries = _tapped(own["joints"], (lambda j: _schedule(lambda: rows.writerow(schedule_row(j))),))
-                try:
-                    append_joint_psets(model, dict(own, joints=entries), ifc_tmp, first_id, owner_id,
-                                       n_per_force_unit=n_per_force_unit)
-                except OSError as exc:
-                    raise OutputError(f"cannot write {targets['ifc']}: {exc.strerror or exc}") from None
-
-        # started now, so the main process goes on with the other outputs at the same time
-        tasks.append(BackgroundTask(_model_and_schedule))
         # The results document is made one joint at a time, never held whole (a large model's is
         # tens of megabytes): as results.json is written, each joint also goes to the issue list and
-        # the BCF topics, which keep only what they need from it.
+        # the BCF topics, which keep only what they need from it, and to the writer of the property
+        # sets and the CSV schedule (engine.pset_worker, a small process of its own).
         doc = outcome.document(stream=True)
+        json_tmp = new_temp(targets["results"])
+        temps.append((json_tmp, targets["results"]))
+        psets.begin({"json": json_tmp, "ifc": ifc_tmp, "csv": csv_tmp, "ifc_label": str(targets["ifc"]),
+                     "csv_label": str(targets["schedule"]), "first_id": first_id, "owner_id": owner_id,
+                     "schema": model.schema, "n_per_force_unit": outcome.frame.n_per_force_unit,
+                     "doc": {"code": doc["code"], "tool": doc["tool"], "run": doc["run"]}})
+        beam_ids: dict[str, int | None] = {}
+
+        def _to_psets(j: dict[str, Any]) -> None:
+            gid = j["beam"]
+            if gid not in beam_ids:
+                try:
+                    beam_ids[gid] = model.by_guid(gid).id()
+                except RuntimeError:  # not in the model (as ifc_io.write_psets.iter_joint_beams): no set
+                    beam_ids[gid] = None
+            psets.add(beam_ids[gid])
+
         issues, topics = IssueList(str(out), str(targets["report"])), BcfTopics(needs_design_topics)
         tapped = dict(doc, joints=_tapped(doc["joints"], (issues.add, topics.add)))
-        temps += write_temps([(targets["results"], parts_writer(_results_json(tapped)))])
+        write_prepared(json_tmp, targets["results"],
+                       parts_writer(_results_json(tapped, on_joint=_to_psets), written=psets.written))
         drawings, symbols = issue_drawings(outcome.results, outcome.members)
         # BCF snapshots of the connections that exist (a joint that needs design has nothing to show)
         snapshots = {r.joint.id: to_png(elevation_for(r, outcome.members[r.joint.beam]))
@@ -306,14 +299,17 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
             (targets["report"], parts_writer(report_parts(doc, drawings, symbols, gathered=issues))),
             (targets["bcf"], bcf),
         ])
-        while tasks:  # the property sets (which report the copy's error with its message), then the copy
+        while tasks:  # the copy, where IfcOpenShell writes it
             tasks.pop().join()
+        psets.finish()  # the property sets, into the complete copy, and the schedule
         # renamed in the order results, schedule, report, BCF, and the model copy last, as before
         by_target = {str(t): (tmp, t) for tmp, t in temps}
         commit_all([by_target[str(targets[k])] for k in ("results", "schedule", "report", "bcf", "ifc")])
     except BaseException:
         for task in tasks:
             task.cancel()
+        if psets is not None:
+            psets.cancel()
         for tmp, _ in temps:
             unlink_quietly(tmp)
             # IfcOpenShell writes through a temporary file of its own beside the target, which a
@@ -362,10 +358,12 @@ def _tapped(entries: Iterable[dict[str, Any]], taps: Sequence[Callable[[dict[str
         yield entry
 
 
-def _results_json(doc: dict[str, Any]) -> Iterator[bytes]:
+def _results_json(doc: dict[str, Any], on_joint: Callable[[dict[str, Any]], None] | None = None
+                  ) -> Iterator[bytes]:
     """results.json as UTF-8, in pieces: the document with one joint (and one warning) per line
     (readable, and fast to write for large models: the lines are encoded by orjson, the whole text
-    is never held in memory)."""
+    is never held in memory). ``on_joint(entry)`` is called for the joints of each piece just
+    before the piece is given out."""
     listed = ("baseline_removed", "warnings", "joints")
     head = {k: v for k, v in doc.items() if k not in listed}
     text = json.dumps(head, indent=1, ensure_ascii=False).encode("utf-8")
@@ -376,7 +374,11 @@ def _results_json(doc: dict[str, Any]) -> Iterator[bytes]:
         yield (b",\n" if n else b"") + f" {json.dumps(key)}: [".encode("utf-8") + (b"\n" if chunk else b"")
         first = True
         while chunk:
-            yield (b"" if first else b",\n") + b",\n".join([b"  " + _json_line(x) for x in chunk])
+            part = (b"" if first else b",\n") + b",\n".join([b"  " + _json_line(x) for x in chunk])
+            if on_joint is not None and key == "joints":
+                for x in chunk:
+                    on_joint(x)
+            yield part
             first = False
             chunk = list(islice(items, 2000))
         yield b"]" if first else b"\n ]"

@@ -157,7 +157,7 @@ def pset_blocks(rows: Iterable[tuple[Mapping[str, Any], int, str, str]], doc: Ma
     typed = BoundedMemo(lambda tv: typed_value(schema, *tv))
     prefix = BoundedMemo(lambda name: f"=IFCPROPERTYSINGLEVALUE({step_string(name)},$,")
     names = BoundedMemo(step_string)
-    reason = BoundedMemo(lambda r: step_string(r)[1:-1], limit=65536)  # encoded without the quotes
+    reason = BoundedMemo(lambda r: step_string(r)[1:-1], limit=8192)  # encoded without the quotes
     described = {name: f"{names[name]},{names[PSET_DESCRIPTION]},(" for name in PSET_BY_END.values()}
     end_line = ",$);" + sep
     # a whole line but its number, for the (name, type, value) that repeat

@@ -107,33 +107,3 @@ def test_a_value_that_cannot_be_pickled_is_an_error_not_half_a_value():
     task = BackgroundTask(lambda: (lambda: None), fork=True, returns=True)
     with pytest.raises(RuntimeError, match="pickle"):
         task.join()
-
-
-@pytest.mark.skipif(not can_fork(), reason="no fork here")
-def test_a_sibling_learns_the_first_tasks_error_and_the_main_process_its_status(tmp_path):
-    missing = tmp_path / "no-such-folder" / "x.txt"
-    first = BackgroundTask(lambda: missing.write_text("x"), fork=True)
-    second = BackgroundTask(first.wait_from_sibling, fork=True)
-    with pytest.raises(OutputError, match="no-such-folder"):
-        second.join()
-    with pytest.raises(RuntimeError, match="status 1"):  # its report went to the sibling
-        first.join()
-
-
-@pytest.mark.skipif(not can_fork(), reason="no fork here")
-def test_a_sibling_waits_until_the_first_task_has_finished(tmp_path):
-    done = tmp_path / "first.txt"
-
-    def first_work():
-        time.sleep(0.3)
-        done.write_text("first")
-
-    first = BackgroundTask(first_work, fork=True)
-
-    def second_work():
-        first.wait_from_sibling()
-        return done.read_text()
-
-    second = BackgroundTask(second_work, fork=True, returns=True)
-    assert second.join() == "first"
-    first.join()

@@ -180,3 +180,25 @@ def test_a_re_audit_written_out_by_ifcopenshell_is_as_deterministic(tmp_path, ca
     _compare(forked, _masked(tmp_path / "serial"))
     assert forked["audited.ifc"] != _masked(tmp_path / "first")["audited.ifc"]  # written out, not copied
     assert forked["results.json"]["joints"] == _masked(tmp_path / "first")["results.json"]["joints"]
+
+
+@pytest.mark.parametrize("serial", ["", "1"])
+def test_a_failing_property_set_writer_leaves_no_output_and_exits_2(tmp_path, capsys, monkeypatch, serial):
+    # the schedule and the property sets are written by engine.pset_worker (a process of its own, or
+    # in process with JOINT_AUDIT_SERIAL=1): its failure ends the run like any other write error
+    import engine.pset_worker
+
+    begin = engine.pset_worker.PsetFeed.begin
+
+    def unwritable_schedule(self, settings):
+        blocker = tmp_path / "a-folder"
+        blocker.mkdir(exist_ok=True)
+        begin(self, dict(settings, csv=str(blocker)))  # a folder where the schedule's file should be
+
+    monkeypatch.setattr(engine.pset_worker.PsetFeed, "begin", unwritable_schedule)
+    monkeypatch.setenv("JOINT_AUDIT_SERIAL", serial)
+    out = tmp_path / "out"
+    assert main(["audit", str(MODEL), *ARGS, "--out", str(out)]) == 2
+    err = capsys.readouterr().err
+    assert err.count("\n") == 1 and "connections.csv" in err, err
+    assert not out.exists()
