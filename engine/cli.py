@@ -422,6 +422,10 @@ def _cmd_audit(args: argparse.Namespace) -> int:
 
 
 def _cmd_demo(args: argparse.Namespace) -> int:
+    # the rule sets first: building the demo goes through IfcOpenShell's API, which can load its
+    # EXPRESS tools, and those add to sys.path a folder with a "rules" package of their own
+    import rules  # noqa: F401
+    import rules.catalog  # noqa: F401
     from samples.generate_demo import build_demo
 
     out = _prepare_out_dir(args.out)
