@@ -28,6 +28,7 @@ import csv
 import marshal
 import os
 import queue
+import signal
 import struct
 import subprocess
 import sys
@@ -285,6 +286,9 @@ class PsetFeed:
 
 
 def _main() -> int:
+    # an interrupt at the terminal reaches every process of the group: the main process handles it
+    # (and stops this one)
+    signal.signal(signal.SIGINT, signal.SIG_IGN)
     try:
         run_worker(_drained(sys.stdin.fileno()))
     except JointAuditError as exc:
