@@ -266,7 +266,8 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
         doc = outcome.document(stream=True)
         json_tmp = new_temp(targets["results"])
         temps.append((json_tmp, targets["results"]))
-        psets.begin({"json": json_tmp, "ifc": ifc_tmp, "csv": csv_tmp, "ifc_label": str(targets["ifc"]),
+        psets.begin({"json": json_tmp, "ifc": ifc_tmp, "copy_complete": bool(verbatim),
+                     "csv": csv_tmp, "ifc_label": str(targets["ifc"]),
                      "csv_label": str(targets["schedule"]), "first_id": first_id, "owner_id": owner_id,
                      "schema": model.schema, "n_per_force_unit": outcome.frame.n_per_force_unit,
                      "doc": {"code": doc["code"], "tool": doc["tool"], "run": doc["run"]}})
@@ -370,7 +371,7 @@ def _results_json(doc: dict[str, Any], on_joint: Callable[[dict[str, Any]], None
     yield text[:-2] + b",\n" if head else b"{\n"
     for n, key in enumerate(k for k in listed if k in doc):
         items = iter(doc[key])  # a list, or a one-pass iterator (results_document(stream=True))
-        chunk = list(islice(items, 2000))
+        chunk = list(islice(items, _JSON_PART))
         yield (b",\n" if n else b"") + f" {json.dumps(key)}: [".encode("utf-8") + (b"\n" if chunk else b"")
         first = True
         while chunk:
@@ -380,9 +381,12 @@ def _results_json(doc: dict[str, Any], on_joint: Callable[[dict[str, Any]], None
                     on_joint(x)
             yield part
             first = False
-            chunk = list(islice(items, 2000))
+            chunk = list(islice(items, _JSON_PART))
         yield b"]" if first else b"\n ]"
     yield b"\n}\n"
+
+
+_JSON_PART = 500  # lines per piece of results.json (the property-set worker reads a piece once it is written)
 
 
 def _json_line(value: Any) -> bytes:

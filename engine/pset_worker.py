@@ -10,7 +10,8 @@ standard input it gets length-prefixed :mod:`marshal` messages:
 
 1. the settings: ``json`` (results.json being written), ``ifc`` and ``csv`` (the temporary files to
    write) with ``ifc_label`` and ``csv_label`` (their names for messages), ``first_id``,
-   ``owner_id``, ``schema``, ``n_per_force_unit``, and ``doc`` (the code, tool and run date);
+   ``owner_id``, ``schema``, ``n_per_force_unit``, ``doc`` (the code, tool and run date), and
+   ``copy_complete`` (the copy at ``ifc`` is already whole: the sets can go straight into it);
 2. ``(size, beam ids)`` each time a piece of results.json is in the file: the file's size so far and,
    when the piece holds joint lines, the beam entity id of each (``None``: no property set);
 3. ``None`` once the copy of the model at ``ifc`` is complete.
@@ -53,13 +54,7 @@ def run_worker(messages: Iterator[Any]) -> int:
     counter = [0]
     with _naming(csv_label):
         csv_fh = open(settings["csv"], "w", encoding="utf-8", newline="")
-    try:
-        with _naming(ifc_label):
-            spool = tempfile.TemporaryFile(dir=os.path.dirname(os.path.abspath(target)) or None)
-    except BaseException:
-        csv_fh.close()
-        raise
-    with csv_fh, spool:
+    with csv_fh:
         schedule = csv.writer(csv_fh, lineterminator="\n")
         with _naming(csv_label):
             schedule.writerow(SCHEDULE_COLUMNS)
@@ -71,19 +66,29 @@ def run_worker(messages: Iterator[Any]) -> int:
                 if beam_id is not None and joint["status"] in PSET_STATUSES:
                     yield joint, beam_id, joint["beam"], PSET_BY_END[joint["end"]]
 
-        for block in pset_blocks(_set_rows(), settings["doc"], settings["first_id"], settings["schema"],
-                                 n_per_force_unit=settings["n_per_force_unit"], owner_id=settings["owner_id"],
-                                 counter=counter, sep="\n"):
-            with _naming(ifc_label):
-                spool.write(block.encode("ascii"))
+        blocks = pset_blocks(_set_rows(), settings["doc"], settings["first_id"], settings["schema"],
+                             n_per_force_unit=settings["n_per_force_unit"], owner_id=settings["owner_id"],
+                             counter=counter, sep="\n")
+        with _naming(ifc_label):
+            if settings.get("copy_complete"):
+                # the copy is there already (the input's own bytes): the sets go straight into it
+                crlf = newline_of(target) == "\r\n"
+                append_before_end(target, (_ended(block.encode("ascii"), crlf) for block in blocks))
+            else:  # spooled until the copy is complete (None received): its line ending is known then
+                with tempfile.TemporaryFile(dir=os.path.dirname(os.path.abspath(target)) or None) as spool:
+                    for block in blocks:
+                        spool.write(block.encode("ascii"))
+                    crlf = newline_of(target) == "\r\n"
+                    spool.seek(0)
+                    append_before_end(target, _spooled(spool, crlf))
         with _naming(csv_label):
             csv_fh.flush()
-        # the copy is complete now (None was received): its line ending is known
-        with _naming(ifc_label):
-            crlf = newline_of(target) == "\r\n"
-            spool.seek(0)
-            append_before_end(target, _spooled(spool, crlf))
     return counter[0]
+
+
+def _ended(block: bytes, crlf: bool) -> bytes:
+    # the sets' text has no line break of its own (STEP strings encode them): only line ends
+    return block.replace(b"\n", b"\r\n") if crlf else block
 
 
 class _naming:
@@ -127,8 +132,7 @@ def _spooled(spool: BinaryIO, crlf: bool) -> Iterator[bytes]:
         block = spool.read(1 << 22)
         if not block:
             return
-        # the sets' text has no line break of its own (STEP strings encode them): only line ends
-        yield block.replace(b"\n", b"\r\n") if crlf else block
+        yield _ended(block, crlf)
 
 
 def _frame(message: Any) -> bytes:
