@@ -1,6 +1,10 @@
 """Atomic output: write to a temporary file in the target folder, then rename over the target.
 
-A reader never sees a half-written output, and a failure leaves no partial file behind.
+A reader never sees a half-written output, and a failure leaves no partial file behind. A file that
+replaces an earlier one (a re-run into the same folder, whose results.json may be the next run's
+baseline) is forced to disk before the rename, so that even an operating-system crash leaves the
+old file or the whole new one; a new file is not (its content is derived and is made again by
+re-running, and forcing tens of megabytes to disk made large audits wait on it).
 :func:`write_all_atomic` does the same for a set of files: all are written to temporary files
 first and renamed only when every one of them has been written, so a failure leaves none of the
 new files behind.
@@ -38,6 +42,7 @@ def write_atomic_with(target: str | os.PathLike[str], writer: Callable[[str], No
     tmp = new_temp(target)
     try:
         writer(tmp)
+        _durable_if_replacing(tmp, target)
         os.replace(tmp, target)
     except OSError as exc:
         _unlink(tmp)
@@ -68,9 +73,18 @@ def parts_writer(parts: Iterable[bytes | str], written: Callable[[int], None] | 
                     fh.flush()
                     written(fh.tell())
             fh.flush()
-            os.fsync(fh.fileno())
 
     return _write
+
+
+def _durable_if_replacing(tmp: str, target: str | os.PathLike[str]) -> None:
+    """Force ``tmp`` to disk when it is to replace an existing ``target`` (see the module docstring)."""
+    if os.path.exists(target):
+        fd = os.open(tmp, os.O_RDONLY)
+        try:
+            os.fsync(fd)
+        finally:
+            os.close(fd)
 
 
 def write_atomic(target: str | os.PathLike[str], data: bytes | str) -> Path:
@@ -96,10 +110,19 @@ def new_temp(target: str | os.PathLike[str]) -> str:
 def commit_all(pairs: Sequence[tuple[str, str | os.PathLike[str]]]) -> list[Path]:
     """Rename each written temporary file over its target, ``(temporary, target)`` in order. If a
     rename fails, the temporary files not yet renamed are removed, and so are the targets already
-    renamed that did not exist before; the error is an :class:`OutputError`."""
+    renamed that did not exist before; the error is an :class:`OutputError`. A file that replaces
+    an existing target is forced to disk first (see the module docstring)."""
     targets = [Path(t) for _, t in pairs]
     existed = [t.exists() for t in targets]
     done: list[Path] = []
+    for (tmp, _), t, was in zip(pairs, targets, existed):
+        if was:
+            try:
+                _durable_if_replacing(tmp, t)
+            except OSError as exc:
+                for rest, _ in pairs:
+                    _unlink(rest)
+                raise OutputError(f"cannot write {t}: {exc.strerror or exc}") from None
     for i, ((tmp, _), t) in enumerate(zip(pairs, targets)):
         try:
             os.replace(tmp, t)

@@ -244,7 +244,6 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
         first_id, owner_id, as_read = prepare_model_copy(model)
         ifc_tmp = new_temp(targets["ifc"])
         temps.append((ifc_tmp, targets["ifc"]))
-        psets = PsetFeed()  # its process started now: ready by the time the results are
         # The copy of the model: the input file's own text when it holds no earlier results and
         # parsed cleanly (ifc_io.write_psets_text.copy_input_verbatim); else written by a child once
         # the model has been read (a large model is read by two processes: ifc_io.read_members)
@@ -252,11 +251,20 @@ def _run_audit(model_path: str, out_dir: str, config_file: str | None, code: str
         verbatim = (as_read and opened is not None and not parse_problems(model)
                     and copy_input_verbatim(model_path, ifc_tmp, opened))
         bar = _ProgressBar()
+
+        def _after_read() -> None:
+            nonlocal psets
+            # the property-set writer's process starts now, while the joints are found (a core is
+            # free then; during the reading both are busy), and is ready by the time the results are
+            psets = PsetFeed()
+            if not verbatim:
+                tasks.append(BackgroundTask(lambda: model.write(ifc_tmp)))
+
         outcome = audit_model(model, code=code, config_file=config_file, schedules=schedules, baseline=baseline,
                               file_label=Path(model_path).name, progress=bar, design=design, make_document=False,
-                              after_read=None if verbatim else
-                              lambda: tasks.append(BackgroundTask(lambda: model.write(ifc_tmp))))
+                              after_read=_after_read)
         bar.done()
+        assert psets is not None
         csv_tmp = new_temp(targets["schedule"])
         temps.append((csv_tmp, targets["schedule"]))
         # The results document is made one joint at a time, never held whole (a large model's is
