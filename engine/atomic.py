@@ -5,9 +5,9 @@ replaces an earlier one (a re-run into the same folder, whose results.json may b
 baseline) is forced to disk before the rename, so that even an operating-system crash leaves the
 old file or the whole new one; a new file is not (its content is derived and is made again by
 re-running, and forcing tens of megabytes to disk made large audits wait on it).
-:func:`write_all_atomic` does the same for a set of files: all are written to temporary files
-first and renamed only when every one of them has been written, so a failure leaves none of the
-new files behind.
+:func:`write_temps` and :func:`commit_all` do the same for a set of files: all are written to
+temporary files first and renamed only when every one of them has been written, so a failure leaves
+none of the new files behind.
 """
 
 from __future__ import annotations
@@ -19,7 +19,7 @@ from typing import Callable, Iterable, Sequence
 
 from engine.errors import OutputError
 
-__all__ = ["write_atomic", "write_atomic_with", "write_all_atomic", "write_temps", "write_prepared", "commit_all",
+__all__ = ["write_atomic", "write_atomic_with", "write_temps", "write_prepared", "commit_all",
            "new_temp", "unlink_quietly", "refuse_input_overwrite", "parts_writer"]
 
 
@@ -59,7 +59,7 @@ def _bytes_writer(data: bytes | str) -> Callable[[str], None]:
 
 def parts_writer(parts: Iterable[bytes | str], written: Callable[[int], None] | None = None
                  ) -> Callable[[str], None]:
-    """A writer (for :func:`write_all_atomic`) that writes ``parts`` one after the other (text as
+    """A writer (for :func:`write_temps` or :func:`write_prepared`) that writes ``parts`` one after the other (text as
     UTF-8), so a large output never has to be held whole in memory. The parts are produced while
     the file is written: an error in producing them leaves no output, like any other write error.
     ``written(size)``, if given, is called after each part, once it is in the file (flushed), with
@@ -166,17 +166,6 @@ def write_prepared(tmp: str, target: str | os.PathLike[str], what: bytes | str |
         writer(tmp)
     except OSError as exc:
         raise OutputError(f"cannot write {target}: {exc.strerror or exc}") from None
-
-
-def write_all_atomic(
-    outputs: Sequence[tuple[str | os.PathLike[str], bytes | str | Callable[[str], None]]],
-) -> list[Path]:
-    """Write several files as one step: each ``(target, data_or_writer)`` goes to a temporary file
-    beside its target (``data`` bytes or text, or a ``writer(tmp_path)``), and only when all are
-    written are they renamed over their targets. If anything fails, the temporary files are
-    removed, and so are the targets already renamed that did not exist before; the error is an
-    :class:`OutputError`."""
-    return commit_all(write_temps(outputs))
 
 
 def unlink_quietly(path: str | os.PathLike[str]) -> None:

@@ -190,7 +190,7 @@ def pset_blocks(rows: Iterable[tuple[Mapping[str, Any], int, str, str]], doc: Ma
         yield "".join(parts)
 
 
-_TAIL = 1 << 16  # the end of the DATA section is looked for in the file's last 64 KiB
+TAIL_BYTES = 1 << 16  # the end of the DATA section is looked for in the file's last 64 KiB
 
 
 def newline_of(path: str | os.PathLike[str]) -> str:
@@ -205,7 +205,7 @@ def append_before_end(path: str | os.PathLike[str], texts: Iterable[str | bytes]
     with no DATA section to end."""
     with open(path, "r+b") as fh:
         size = fh.seek(0, 2)
-        start = max(0, size - _TAIL)
+        start = max(0, size - TAIL_BYTES)
         fh.seek(start)
         tail = fh.read()
         end = tail.rfind(b"ENDSEC;")

@@ -31,7 +31,7 @@ from engine.errors import OutputError
 from engine.evaluate import ISSUE_STATUSES
 from engine.memo import BoundedMemo
 
-__all__ = ["render_report", "report_parts", "issue_joints"]
+__all__ = ["render_report", "report_parts", "IssueList"]
 
 _CSS = """
 body{font:15px/1.45 system-ui,-apple-system,"Segoe UI",Roboto,sans-serif;color:#1d1d1d;margin:0;background:#fbfbf8}
@@ -91,14 +91,6 @@ _JS = """
   apply();
 })();
 """
-
-
-def issue_joints(doc: Mapping[str, Any]) -> list[Mapping[str, Any]]:
-    """The joints of a results document that are issues: failures first, then incomplete, then those
-    needing design; within each, highest utilisation first, then by joint id (stable)."""
-    rank = {"fail": 0, "incomplete": 1, "needs-design": 2}
-    issues = [j for j in doc["joints"] if j["status"] in ISSUE_STATUSES]
-    return sorted(issues, key=lambda j: (rank[j["status"]], -(j.get("utilisation") or 0.0), j["id"]))
 
 
 def _fmt(v: Any, nd: int = 2) -> str:

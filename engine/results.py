@@ -33,7 +33,6 @@ __all__ = [
     "read_baseline",
     "baseline_marks",
     "schedule_csv",
-    "schedule_csv_parts",
     "schedule_row",
     "SCHEDULE_COLUMNS",
 ]
@@ -269,7 +268,11 @@ SCHEDULE_COLUMNS = (
 
 def schedule_csv(doc: Mapping[str, Any]) -> str:
     """The connection schedule (one row per joint) as CSV text, from a results document."""
-    return "".join(schedule_csv_parts(doc))
+    buf = io.StringIO()
+    w = csv.writer(buf, lineterminator="\n")
+    w.writerow(SCHEDULE_COLUMNS)
+    w.writerows(schedule_row(j) for j in doc["joints"])
+    return buf.getvalue()
 
 
 def schedule_row(j: Mapping[str, Any]) -> list[Any]:
@@ -283,18 +286,3 @@ def schedule_row(j: Mapping[str, Any]) -> list[Any]:
         "" if j["utilisation"] is None else j["utilisation"],
         j["governing"] or "", j["status"], j["baseline"] or "",
     ]
-
-
-def schedule_csv_parts(doc: Mapping[str, Any], rows_per_part: int = 2000) -> Iterator[str]:
-    """:func:`schedule_csv` in pieces of ``rows_per_part`` rows (a large model's schedule is
-    written without ever being held whole)."""
-    buf = io.StringIO()
-    w = csv.writer(buf, lineterminator="\n")
-    w.writerow(SCHEDULE_COLUMNS)
-    for n, j in enumerate(doc["joints"], 1):
-        w.writerow(schedule_row(j))
-        if n % rows_per_part == 0:
-            yield buf.getvalue()
-            buf.seek(0)
-            buf.truncate()
-    yield buf.getvalue()

@@ -30,30 +30,12 @@ from typing import Any, Iterable, Iterator, Mapping, NamedTuple
 
 import ifcopenshell
 
-from engine.pset_text import (PSET_STATUSES, append_before_end, newline_of, pset_blocks, step_real,
+from engine.pset_text import (PSET_STATUSES, TAIL_BYTES, append_before_end, newline_of, pset_blocks, step_real,
                               step_string)
 from ifc_io.write_psets import _owner_history, iter_joint_beams, remove_all_joint_psets
 
-__all__ = ["step_string", "step_real", "iter_joint_pset_lines", "ModelCopy", "prepare_model_copy",
+__all__ = ["step_string", "step_real", "ModelCopy", "prepare_model_copy",
            "copy_input_verbatim", "append_joint_psets", "write_model_with_psets"]
-
-
-def iter_joint_pset_lines(
-    model: ifcopenshell.file,
-    doc: Mapping[str, Any],
-    first_id: int,
-    *,
-    n_per_force_unit: float = 1.0,
-    statuses: Iterable[str] = PSET_STATUSES,
-    owner_id: int | None = None,
-    counter: list[int] | None = None,
-) -> Iterator[str]:
-    """STEP lines of one property set per joint of ``doc`` whose status is in ``statuses`` (as
-    :func:`ifc_io.write_psets.write_joint_psets` writes them), ids from ``first_id``, one after the
-    other; ``counter[0]`` counts the sets."""
-    for block in _pset_blocks(model, doc, first_id, n_per_force_unit=n_per_force_unit, statuses=statuses,
-                              owner_id=owner_id, counter=counter, sep="\n"):
-        yield from block.splitlines()
 
 
 def _pset_blocks(
@@ -67,14 +49,14 @@ def _pset_blocks(
     counter: list[int] | None,
     sep: str,
 ) -> Iterator[str]:
-    """The lines of :func:`iter_joint_pset_lines`, one text per property set
+    """The STEP lines of one property set per joint of ``doc`` whose status is in ``statuses`` (as
+    :func:`ifc_io.write_psets.write_joint_psets` writes them), ids from ``first_id``, one text per set
     (:func:`engine.pset_text.pset_blocks` on the joints whose beams are in ``model``)."""
     rows = ((joint, beam.id(), joint["beam"], name) for joint, beam, name in iter_joint_beams(model, doc, statuses))
     return pset_blocks(rows, doc, first_id, model.schema, n_per_force_unit=n_per_force_unit, owner_id=owner_id,
                        counter=counter, sep=sep)
 
 
-_TAIL = 1 << 16  # the end of the DATA section is looked for in the file's last 64 KiB
 
 
 class ModelCopy(NamedTuple):
@@ -121,7 +103,7 @@ def copy_input_verbatim(source: str | os.PathLike[str], target: str | os.PathLik
         if not same(os.stat(source)):
             return False
         with open(source, "rb") as fh:
-            fh.seek(max(0, opened.st_size - _TAIL))
+            fh.seek(max(0, opened.st_size - TAIL_BYTES))
             tail = fh.read()
         end = tail.rfind(b"ENDSEC;")
         if end < 0 or not _PLAIN_END.match(tail, end):
