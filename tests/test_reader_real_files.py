@@ -13,18 +13,8 @@ import math
 import ifcopenshell
 import pytest
 
+from helpers_models import REAL_FILES
 from ifc_io import open_model, read_frame
-
-ALL_FILES = [
-    "small-steel-frame-ifc2x3-mm.ifc",
-    "simple-frame-ifc4-m.ifc",
-    "named-profiles-frame-ifc2x3-mm.ifc",
-    "beam-parametric-cross-section-ifc4x3.ifc",
-    "beam-cardinal-points-ifc4x3.ifc",
-    "grid-placement-ifc4x3.ifc",
-    "timber-frame-path-connections-ifc4-mm.ifc",
-    "analysis-model-building-ifc4.ifc",
-]
 
 _FRAMES: dict[str, object] = {}
 
@@ -45,7 +35,7 @@ def close(a, b, tol=0.5):
     return all(abs(x - y) <= tol for x, y in zip(a, b))
 
 
-@pytest.mark.parametrize("name", ALL_FILES)
+@pytest.mark.parametrize("name", REAL_FILES)
 def test_counts_match_ifcopenshell_and_every_member_is_read(shared_models, name):
     model = ifcopenshell.open(str(shared_models / name))
     frame = frame_of(shared_models, name)

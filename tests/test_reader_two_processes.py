@@ -13,22 +13,12 @@ import pytest
 
 import ifc_io.read_members as read_members_module
 from engine.background import BackgroundTask, can_fork
+from helpers_models import REAL_FILES
 from ifc_io import read_frame
 
 pytestmark = pytest.mark.skipif(not can_fork(), reason="the split needs fork (Linux)")
 
 REPO = Path(__file__).resolve().parents[1]
-REAL = [
-    "small-steel-frame-ifc2x3-mm.ifc",
-    "simple-frame-ifc4-m.ifc",
-    "named-profiles-frame-ifc2x3-mm.ifc",
-    "beam-parametric-cross-section-ifc4x3.ifc",
-    "beam-cardinal-points-ifc4x3.ifc",
-    "grid-placement-ifc4x3.ifc",
-    "timber-frame-path-connections-ifc4-mm.ifc",
-    "analysis-model-building-ifc4.ifc",
-]
-
 
 def _read_both(path: Path, monkeypatch) -> tuple:
     monkeypatch.setenv("JOINT_AUDIT_SERIAL", "1")
@@ -39,7 +29,7 @@ def _read_both(path: Path, monkeypatch) -> tuple:
     return serial, split
 
 
-@pytest.mark.parametrize("name", REAL)
+@pytest.mark.parametrize("name", REAL_FILES)
 def test_two_processes_read_the_same_frame_as_one_from_a_real_file(shared_models, monkeypatch, name):
     serial, split = _read_both(shared_models / name, monkeypatch)
     assert split.members == serial.members
